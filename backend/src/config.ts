@@ -1,0 +1,87 @@
+import path from 'node:path';
+import { z } from 'zod';
+
+/**
+ * Every setting Brimwatch reads, in one place, read once at start.
+ * Each key has an environment variable of the same name and a default that
+ * works on a developer's machine (everything on loopback).
+ */
+const port = (name: string, fallback: number, lowest = 1) => {
+  const rule = `${name} must be a whole number between ${lowest} and 65535`;
+  return z.coerce.number({ error: rule }).int(rule).min(lowest, rule).max(65535, rule).default(fallback);
+};
+
+const positiveInt = (name: string, fallback: number) =>
+  z.coerce.number({ error: `${name} must be a positive whole number` }).int(`${name} must be a positive whole number`).positive(`${name} must be a positive whole number`).default(fallback);
+
+const flag = (fallback: boolean) =>
+  z.enum(['true', 'false', '1', '0', 'yes', 'no']).default(fallback ? 'true' : 'false').transform((v) => ['true', '1', 'yes'].includes(v));
+
+const schema = z.object({
+  NODE_ENV: z.enum(['development', 'test', 'production']).default('development'),
+  HOST: z.string().min(1).default('127.0.0.1'),
+  PORT: port('PORT', 8080, 0), // 0 picks a free port (tests)
+  PUBLIC_URL: z.url('PUBLIC_URL must be a full URL such as http://127.0.0.1:8080').optional(),
+  DATA_DIR: z.string().min(1).default('./.data'),
+  DATABASE_URL: z.string().optional(),
+  PGHOST: z.string().min(1).default('127.0.0.1'),
+  PGPORT: port('PGPORT', 54329),
+  PGUSER: z.string().min(1).default('brimwatch'),
+  PGDATABASE: z.string().min(1).default('brimwatch'),
+  SMTP_HOST: z.string().min(1).default('127.0.0.1'),
+  SMTP_PORT: port('SMTP_PORT', 1025),
+  SMTP_USER: z.string().optional(),
+  SMTP_PASS: z.string().optional(),
+  SMTP_FROM: z.string().min(3).default('Brimwatch <brimwatch@brimwatch.test>'),
+  SMTP_SECURE: flag(false),
+  MAIL_UI_PORT: port('MAIL_UI_PORT', 1080),
+  OIDC_PORT: port('OIDC_PORT', 9400),
+  OIDC_ISSUER: z.url('OIDC_ISSUER must be the provider URL, e.g. http://127.0.0.1:9400').optional(),
+  OIDC_CLIENT_ID: z.string().min(1).default('brimwatch'),
+  OIDC_CLIENT_SECRET: z.string().min(1).default('brimwatch-local-secret'),
+  SESSION_SECRET: z.string().min(16, 'SESSION_SECRET must be at least 16 characters').default('brimwatch-local-session-secret'),
+  COLLECTOR_METRICS_PORT: port('COLLECTOR_METRICS_PORT', 9464),
+  DEMO_FLEET_PORT: port('DEMO_FLEET_PORT', 9500),
+  TARGET_ALLOWLIST: z.string().default('127.0.0.0/8,::1/128,localhost'),
+  SCRAPE_MAX_BYTES: positiveInt('SCRAPE_MAX_BYTES', 1024 * 1024),
+  UPLOAD_MAX_BYTES: positiveInt('UPLOAD_MAX_BYTES', 64 * 1024 * 1024),
+  RAW_RETENTION_DAYS: positiveInt('RAW_RETENTION_DAYS', 14),
+  DEMO: flag(true),
+});
+
+export type Config = z.infer<typeof schema> & {
+  publicUrl: string;
+  oidcIssuer: string;
+  dataDir: string;
+  databaseUrl: string;
+};
+
+export class ConfigError extends Error {
+  constructor(message: string) {
+    super(message);
+    this.name = 'ConfigError';
+  }
+}
+
+/** Reads and checks the environment; a bad value stops the start with the variable's name and the fix. */
+export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
+  const present = Object.fromEntries(Object.entries(env).filter(([, v]) => v !== undefined && v !== ''));
+  const parsed = schema.safeParse(present);
+  if (!parsed.success) {
+    const lines = parsed.error.issues.map((issue) => {
+      const name = String(issue.path[0]);
+      const got = env[name] === undefined ? '' : ` (got '${env[name]}')`;
+      return `  ${name}: ${issue.message}${got}. Fix: unset ${name} to use its default, or set it to a valid value.`;
+    });
+    throw new ConfigError(`Brimwatch cannot start, the configuration is wrong:\n${lines.join('\n')}`);
+  }
+  const c = parsed.data;
+  const urlHost = c.HOST.includes(':') ? `[${c.HOST}]` : c.HOST;
+  return {
+    ...c,
+    publicUrl: (c.PUBLIC_URL ?? `http://${urlHost}:${c.PORT}`).replace(/\/$/, ''),
+    oidcIssuer: (c.OIDC_ISSUER ?? `http://${urlHost}:${c.OIDC_PORT}`).replace(/\/$/, ''),
+    dataDir: path.resolve(c.DATA_DIR),
+    databaseUrl: c.DATABASE_URL ?? `postgres://${c.PGUSER}@${c.PGHOST}:${c.PGPORT}/${c.PGDATABASE}`,
+  };
+}

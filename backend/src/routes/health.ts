@@ -1,0 +1,16 @@
+import { Router } from 'express';
+import { databaseAnswers, type Db } from '../db';
+
+/** Public: tells a load balancer, the start script and the shell whether Brimwatch can serve. */
+export function healthRoutes(db: Db, version: string): Router {
+  const router = Router();
+  router.get('/health', async (_req, res) => {
+    const database = await databaseAnswers(db);
+    if (database.up) {
+      res.json({ status: 'ok', database: 'up', version });
+    } else {
+      res.status(503).json({ status: 'down', database: 'down', reason: `the database does not answer: ${database.reason}`, version });
+    }
+  });
+  return router;
+}
