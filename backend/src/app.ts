@@ -7,10 +7,20 @@ import type { Config } from './config';
 import type { Db } from './db';
 import { errorHandler, notFoundRoute } from './http/errors';
 import { healthRoutes } from './routes/health';
+import { refuseCrossSite } from './auth/csrf';
+import { identifyCaller } from './auth/identify';
+import { createSessions } from './auth/session';
 
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../..');
 export const spaDir = path.join(root, 'frontend', 'dist');
 const version = JSON.parse(fs.readFileSync(path.join(root, 'package.json'), 'utf8')).version as string;
+
+const closers = new WeakMap<express.Express, () => Promise<void>>();
+
+/** Releases what the app holds besides the database (the session store's pruning timer). */
+export function closeApp(app: express.Express): Promise<void> {
+  return closers.get(app)?.() ?? Promise.resolve();
+}
 
 export interface AppDeps {
   config: Config;
@@ -42,7 +52,11 @@ export function createApp({ config, db, log = console.error }: AppDeps): express
   );
   app.use(express.json({ limit: '1mb' }));
 
+  const sessions = createSessions(config, db);
+  closers.set(app, sessions.close);
   const api = express.Router();
+  // Who is calling, before any route: every route then declares who may (auth/permission.ts).
+  api.use(refuseCrossSite(config.publicUrl), sessions.middleware, identifyCaller(db, config.SESSION_ABSOLUTE_HOURS * 3600_000));
   api.use(healthRoutes(db, version));
   api.use(notFoundRoute);
   app.use('/api', api);

@@ -40,6 +40,8 @@ const schema = z.object({
   OIDC_CLIENT_ID: z.string().min(1).default('brimwatch'),
   OIDC_CLIENT_SECRET: z.string().min(1).default('brimwatch-local-secret'),
   SESSION_SECRET: z.string().min(16, 'SESSION_SECRET must be at least 16 characters').default('brimwatch-local-session-secret'),
+  SESSION_IDLE_HOURS: positiveInt('SESSION_IDLE_HOURS', 8),
+  SESSION_ABSOLUTE_HOURS: positiveInt('SESSION_ABSOLUTE_HOURS', 24),
   COLLECTOR_METRICS_PORT: port('COLLECTOR_METRICS_PORT', 9464),
   DEMO_FLEET_PORT: port('DEMO_FLEET_PORT', 9500),
   TARGET_ALLOWLIST: z.string().default('127.0.0.0/8,::1/128,localhost'),

@@ -1,6 +1,6 @@
 import http from 'node:http';
 import type { AddressInfo } from 'node:net';
-import { createApp } from './app';
+import { closeApp, createApp } from './app';
 import type { Config } from './config';
 import { createDb, type Db } from './db';
 
@@ -29,6 +29,7 @@ export async function start(config: Config, options: { db?: Db; log?: (line: str
     async stop() {
       server.closeAllConnections();
       await new Promise<void>((resolve) => server.close(() => resolve()));
+      await closeApp(app);
       if (!options.db) await db.destroy();
     },
   };

@@ -1,10 +1,11 @@
 import { Router } from 'express';
+import { allow } from '../auth/permission';
 import { databaseAnswers, type Db } from '../db';
 
 /** Public: tells a load balancer, the start script and the shell whether Brimwatch can serve. */
 export function healthRoutes(db: Db, version: string): Router {
   const router = Router();
-  router.get('/health', async (_req, res) => {
+  router.get('/health', allow('public'), async (_req, res) => {
     const database = await databaseAnswers(db);
     if (database.up) {
       res.json({ status: 'ok', database: 'up', version });
