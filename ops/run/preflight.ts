@@ -6,7 +6,7 @@ import path from 'node:path';
 
 export function ensureWritableDataDir(dataDir: string): void {
   try {
-    fs.mkdirSync(dataDir, { recursive: true });
+    makeFolders(dataDir);
     const probe = path.join(dataDir, `.write-probe-${process.pid}`);
     fs.writeFileSync(probe, 'ok');
     fs.rmSync(probe);
@@ -14,6 +14,17 @@ export function ensureWritableDataDir(dataDir: string): void {
     const reason = err instanceof Error ? err.message : String(err);
     throw new Error(`DATA_DIR '${dataDir}' is not writable (${reason}). Fix: set DATA_DIR to a folder you can write, e.g. DATA_DIR=./.data`, { cause: err });
   }
+}
+
+/** mkdir -p one level at a time: Node's recursive mkdir can spin forever under /proc. */
+function makeFolders(dir: string): void {
+  const missing: string[] = [];
+  let at = path.resolve(dir);
+  while (!fs.existsSync(at)) {
+    missing.unshift(at);
+    at = path.dirname(at);
+  }
+  for (const folder of missing) fs.mkdirSync(folder);
 }
 
 /** One `npm start` per data folder: a second one would fight the first over the same cluster. */
