@@ -1,5 +1,6 @@
 import path from 'node:path';
 import { z } from 'zod';
+import { validate as validCron } from 'node-cron';
 
 /**
  * Every setting Brimwatch reads, in one place, read once at start.
@@ -16,6 +17,8 @@ const positiveInt = (name: string, fallback: number) =>
 
 const flag = (fallback: boolean) =>
   z.enum(['true', 'false', '1', '0', 'yes', 'no']).default(fallback ? 'true' : 'false').transform((v) => ['true', '1', 'yes'].includes(v));
+
+const bandRule = 'ALERT_CLEAR_BAND must be a fraction from 0 to 0.5 of capacity, such as 0.05 for 5 points';
 
 const schema = z.object({
   NODE_ENV: z.enum(['development', 'test', 'production']).default('development'),
@@ -42,6 +45,10 @@ const schema = z.object({
   SESSION_SECRET: z.string().min(16, 'SESSION_SECRET must be at least 16 characters').default('brimwatch-local-session-secret'),
   SESSION_IDLE_HOURS: positiveInt('SESSION_IDLE_HOURS', 8),
   SESSION_ABSOLUTE_HOURS: positiveInt('SESSION_ABSOLUTE_HOURS', 24),
+  SIGN_IN_RATE_PER_MINUTE: positiveInt('SIGN_IN_RATE_PER_MINUTE', 20),
+  TOKEN_RATE_PER_MINUTE: positiveInt('TOKEN_RATE_PER_MINUTE', 30),
+  TOKEN_DEFAULT_DAYS: positiveInt('TOKEN_DEFAULT_DAYS', 90),
+  TOKEN_MAX_DAYS: positiveInt('TOKEN_MAX_DAYS', 365),
   COLLECTOR_METRICS_PORT: port('COLLECTOR_METRICS_PORT', 9464),
   DEMO_FLEET_PORT: port('DEMO_FLEET_PORT', 9500),
   TARGET_ALLOWLIST: z.string().default('127.0.0.0/8,::1/128,localhost'),
@@ -49,6 +56,17 @@ const schema = z.object({
   UPLOAD_MAX_BYTES: positiveInt('UPLOAD_MAX_BYTES', 64 * 1024 * 1024),
   RAW_RETENTION_DAYS: positiveInt('RAW_RETENTION_DAYS', 14),
   DEMO: flag(true),
+  // Alerts and e-mail (backend/src/alerts/): when to repeat, escalate and resolve, and how the outbox retries.
+  ESCALATION_DELAY_MINUTES: positiveInt('ESCALATION_DELAY_MINUTES', 30),
+  REPEAT_BRIMMED_HOURS: positiveInt('REPEAT_BRIMMED_HOURS', 4),
+  REPEAT_UNREACHABLE_HOURS: positiveInt('REPEAT_UNREACHABLE_HOURS', 4),
+  REPEAT_STALE_HOURS: positiveInt('REPEAT_STALE_HOURS', 12),
+  REPEAT_WATCH_HOURS: positiveInt('REPEAT_WATCH_HOURS', 24),
+  ALERT_SETTLING_MINUTES: positiveInt('ALERT_SETTLING_MINUTES', 15),
+  ALERT_CLEAR_BAND: z.coerce.number({ error: bandRule }).min(0, bandRule).max(0.5, bandRule).default(0.05),
+  MAIL_RETRY_BASE_SECONDS: positiveInt('MAIL_RETRY_BASE_SECONDS', 30),
+  MAIL_RETRY_MAX_MINUTES: positiveInt('MAIL_RETRY_MAX_MINUTES', 30),
+  DIGEST_CRON: z.string().refine((v) => validCron(v), 'DIGEST_CRON must be a cron expression such as "0 8 * * *" (08:00 every day)').default('0 8 * * *'),
 });
 
 export type Config = z.infer<typeof schema> & {
