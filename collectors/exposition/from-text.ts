@@ -19,7 +19,7 @@ export const METRIC_OF = {
 
 type Scalar = Exclude<keyof FoundFigures, 'nonzeroCells'>;
 const SCALARS = Object.keys(METRIC_OF).filter((f) => f !== 'nonzeroCells') as Scalar[];
-const FIELD_OF = new Map(Object.entries(METRIC_OF).map(([field, metric]) => [metric, field as keyof FoundFigures]));
+const FIELD_OF = new Map<string, keyof FoundFigures>(Object.entries(METRIC_OF).map(([field, metric]) => [metric, field as keyof FoundFigures]));
 
 const quoted = (label: string) => `sketch="${label.replace(/\\/g, '\\\\').replace(/"/g, '\\"').replace(/\n/g, '\\n')}"`;
 

@@ -26,8 +26,8 @@ export const GOOD: Required<Figures> = {
  * both text dialects, so the parser is checked against what services really send.
  */
 export async function promClientBody(figures: Figures, openMetrics: boolean, label = 'limiter'): Promise<{ body: string; contentType: string }> {
-  const type = openMetrics ? client.Registry.OPENMETRICS_CONTENT_TYPE : client.Registry.PROMETHEUS_CONTENT_TYPE;
-  const registry = new client.Registry(type as typeof client.Registry.PROMETHEUS_CONTENT_TYPE);
+  const registry = new client.Registry<client.RegistryContentType>();
+  if (openMetrics) registry.setContentType(client.Registry.OPENMETRICS_CONTENT_TYPE);
   const gauge = (name: string, value: number | undefined) => {
     if (value === undefined) return;
     new client.Gauge({ name, help: name, labelNames: ['sketch'], registers: [registry] }).set({ sketch: label }, value);
