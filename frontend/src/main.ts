@@ -1,0 +1,20 @@
+import { createApp } from 'vue';
+import { createPinia } from 'pinia';
+import { Quasar } from 'quasar';
+import iconSet from 'quasar/icon-set/svg-material-icons-outlined';
+import '@fontsource/ibm-plex-sans/400.css';
+import '@fontsource/ibm-plex-sans/500.css';
+import '@fontsource/ibm-plex-sans/600.css';
+import '@fontsource/jetbrains-mono/400.css';
+import '@fontsource/jetbrains-mono/500.css';
+import 'quasar/dist/quasar.css';
+import './styles/palette.css';
+import './styles/base.css';
+import App from './App.vue';
+import { createBrimwatchRouter } from './router';
+
+const app = createApp(App);
+app.use(createPinia());
+app.use(Quasar, { iconSet });
+app.use(createBrimwatchRouter());
+app.mount('#app');
