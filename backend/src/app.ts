@@ -10,6 +10,7 @@ import { healthRoutes } from './routes/health';
 import { refuseCrossSite } from './auth/csrf';
 import { identifyCaller } from './auth/identify';
 import { createSessions } from './auth/session';
+import { sketchRoutes } from './routes/sketches';
 
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../..');
 export const spaDir = path.join(root, 'frontend', 'dist');
@@ -58,6 +59,7 @@ export function createApp({ config, db, log = console.error }: AppDeps): express
   // Who is calling, before any route: every route then declares who may (auth/permission.ts).
   api.use(refuseCrossSite(config.publicUrl), sessions.middleware, identifyCaller(db, config.SESSION_ABSOLUTE_HOURS * 3600_000));
   api.use(healthRoutes(db, version));
+  api.use(sketchRoutes(db, config));
   api.use(notFoundRoute);
   app.use('/api', api);
 
