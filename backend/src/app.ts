@@ -11,6 +11,7 @@ import { refuseCrossSite } from './auth/csrf';
 import { identifyCaller } from './auth/identify';
 import { createSessions } from './auth/session';
 import { sketchRoutes } from './routes/sketches';
+import { metricsRoutes } from './routes/metrics';
 
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../..');
 export const spaDir = path.join(root, 'frontend', 'dist');
@@ -62,6 +63,7 @@ export function createApp({ config, db, log = console.error }: AppDeps): express
   api.use(sketchRoutes(db, config));
   api.use(notFoundRoute);
   app.use('/api', api);
+  app.use(metricsRoutes(db, config));
 
   app.use(express.static(spaDir, { index: false, maxAge: '1h' }));
   app.get(/^(?!\/api\/).*/, (_req, res, next) => {
