@@ -10,8 +10,15 @@ import { healthRoutes } from './routes/health';
 import { refuseCrossSite } from './auth/csrf';
 import { identifyCaller } from './auth/identify';
 import { createSessions } from './auth/session';
+import { signInClient } from './auth/oidc-client';
+import { authRoutes } from './routes/auth';
+import { auditRoutes } from './routes/audit';
+import { teamRoutes } from './routes/teams';
+import { tokenRoutes } from './routes/tokens';
+import { userRoutes } from './routes/users';
 import { sketchRoutes } from './routes/sketches';
 import { metricsRoutes } from './routes/metrics';
+import { dumpRoutes } from './routes/dumps';
 
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../..');
 export const spaDir = path.join(root, 'frontend', 'dist');
@@ -60,7 +67,9 @@ export function createApp({ config, db, log = console.error }: AppDeps): express
   // Who is calling, before any route: every route then declares who may (auth/permission.ts).
   api.use(refuseCrossSite(config.publicUrl), sessions.middleware, identifyCaller(db, config.SESSION_ABSOLUTE_HOURS * 3600_000));
   api.use(healthRoutes(db, version));
+  api.use(authRoutes(config, db, signInClient(config)), userRoutes(db), teamRoutes(db), tokenRoutes(config, db), auditRoutes(db));
   api.use(sketchRoutes(db, config));
+  api.use(dumpRoutes(db, config));
   api.use(notFoundRoute);
   app.use('/api', api);
   app.use(metricsRoutes(db, config));
