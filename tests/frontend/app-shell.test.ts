@@ -8,7 +8,8 @@ afterEach(() => {
   document.body.innerHTML = '';
 });
 
-describe('the app shell', () => {
+// Mounting the whole app compiles Quasar on first use; a busy machine needs more than the default 5 s.
+describe('the app shell', { timeout: 20_000 }, () => {
   it('when it opens, then the rail lists the pages in the order of a working day', async () => {
     answerWith({ '/api/health': HEALTHY, '/api/auth/me': SIGNED_OUT });
     const { wrapper } = await mountApp('/fleet');

@@ -30,7 +30,8 @@ function messageBeside(mounted: Mounted, selector: string): string {
   return field?.querySelector('.q-field__messages')?.textContent?.trim() ?? '';
 }
 
-describe('the Planner', () => {
+// Mounting the whole app compiles Quasar on first use; a busy machine needs more than the default 5 s.
+describe('the Planner', { timeout: 20_000 }, () => {
   it('when the sized total and budget are typed, then width and depth answer at once', async () => {
     const mounted = await mountPage('/planner');
     await type(mounted, '#planner-sized-total', '1 000 000');

@@ -9,7 +9,8 @@ afterEach(() => {
   document.body.innerHTML = '';
 });
 
-describe('a 401 from the server', () => {
+// Mounting the whole app compiles Quasar on first use; a busy machine needs more than the default 5 s.
+describe('a 401 from the server', { timeout: 20_000 }, () => {
   it('when a data request answers 401, then the router goes to sign-in, remembering the page', async () => {
     answerWith({ '/api/health': HEALTHY, '/api/fleet': SIGNED_OUT });
     const { wrapper, router } = await mountPage('/alerts');

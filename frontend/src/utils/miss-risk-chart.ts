@@ -13,7 +13,24 @@ export interface ChartMarks {
 
 const AXIS_FONT = '11px "JetBrains Mono", ui-monospace, monospace';
 
-function verticalRule(u: uPlot, at: number, colour: string, dash: number[], label: string, width = 1): void {
+interface Rule {
+  at: number;
+  colour: string;
+  dash: number[];
+  label: string;
+  width?: number;
+  /** Which line of labels, counted from the top, so close rules do not print over each other. */
+  row: number;
+}
+
+function labelStyle(ctx: CanvasRenderingContext2D): void {
+  ctx.font = `${11 * uPlot.pxRatio}px "JetBrains Mono", monospace`;
+  // uPlot leaves the alignment of its last axis on the context.
+  ctx.textAlign = 'left';
+  ctx.textBaseline = 'alphabetic';
+}
+
+function verticalRule(u: uPlot, { at, colour, dash, label, width = 1, row }: Rule): void {
   const ctx = u.ctx;
   const x = Math.round(u.valToPos(at, 'x', true));
   const { top, height } = u.bbox;
@@ -26,8 +43,8 @@ function verticalRule(u: uPlot, at: number, colour: string, dash: number[], labe
   ctx.moveTo(x, top);
   ctx.lineTo(x, top + height);
   ctx.stroke();
-  ctx.font = `${11 * uPlot.pxRatio}px "JetBrains Mono", monospace`;
-  ctx.fillText(label, x + 4 * uPlot.pxRatio, top + 12 * uPlot.pxRatio);
+  labelStyle(ctx);
+  ctx.fillText(label, x + 4 * uPlot.pxRatio, top + (12 + 14 * row) * uPlot.pxRatio);
   ctx.restore();
 }
 
@@ -44,18 +61,38 @@ function horizontalRule(u: uPlot, at: number, label: string): void {
   ctx.moveTo(left, y);
   ctx.lineTo(left + width, y);
   ctx.stroke();
-  ctx.font = `${11 * uPlot.pxRatio}px "JetBrains Mono", monospace`;
+  labelStyle(ctx);
   ctx.fillText(label, left + 4 * uPlot.pxRatio, y - 4 * uPlot.pxRatio);
   ctx.restore();
 }
 
-function logTicks(_u: uPlot, splits: number[]): string[] {
-  return splits.map((v) => formatPowerOfTen(Math.round(Math.log10(v))));
+/** At most about six powers of ten, so the labels never crowd. */
+function powersOfTen(_u: uPlot, _axis: number, min: number, max: number): number[] {
+  const low = Math.ceil(Math.log10(min));
+  const high = Math.floor(Math.log10(max));
+  const step = Math.max(1, Math.ceil((high - low) / 6));
+  const splits: number[] = [];
+  for (let exponent = high; exponent >= low; exponent -= step) splits.push(10 ** exponent);
+  return splits;
+}
+
+function powerLabels(_u: uPlot, splits: number[]): string[] {
+  return splits.map((v) => (v > 0 ? formatPowerOfTen(Math.round(Math.log10(v))) : ''));
+}
+
+/** The splits above are already thinned; uPlot's own log thinning would blank some of them. */
+function keepAll(_u: uPlot, splits: number[]): number[] {
+  return splits;
 }
 
 /** `marks` is read on every draw, so updating it and redrawing moves the rules. */
 export function missRiskChartOptions(width: number, marks: () => ChartMarks): uPlot.Options {
-  const axis = { font: AXIS_FONT, stroke: PALETTE.inkSecondary, grid: { stroke: PALETTE.hairline, width: 1 } };
+  const axis = {
+    font: AXIS_FONT,
+    labelFont: AXIS_FONT,
+    stroke: PALETTE.inkSecondary,
+    grid: { stroke: PALETTE.hairline, width: 1 },
+  };
   return {
     width,
     height: 280,
@@ -67,7 +104,7 @@ export function missRiskChartOptions(width: number, marks: () => ChartMarks): uP
     },
     axes: [
       { ...axis, label: 'stream total n', values: (_u, splits) => splits.map(formatCompact) },
-      { ...axis, label: 'miss risk', size: 64, values: logTicks },
+      { ...axis, label: 'miss risk', size: 64, splits: powersOfTen, filter: keepAll, values: powerLabels },
     ],
     series: [
       { label: 'stream total', value: (_u, v) => (v == null ? '—' : formatCount(v)) },
@@ -84,9 +121,9 @@ export function missRiskChartOptions(width: number, marks: () => ChartMarks): uP
         (u) => {
           const { capacity, sizedTotal, delta } = marks();
           horizontalRule(u, delta, `δ ${formatRisk(delta)}`);
-          verticalRule(u, sizedTotal, PALETTE.inkSecondary, [4, 4], 'n₀');
-          verticalRule(u, capacity * DEFAULT_WATCH_LINE, PALETTE.watch, [1, 3], 'watch');
-          verticalRule(u, capacity, PALETTE.brass, [], 'brim', 2);
+          verticalRule(u, { at: capacity * DEFAULT_WATCH_LINE, colour: PALETTE.watch, dash: [1, 3], label: 'watch', row: 0 });
+          verticalRule(u, { at: sizedTotal, colour: PALETTE.inkSecondary, dash: [4, 4], label: 'n₀', row: 1 });
+          verticalRule(u, { at: capacity, colour: PALETTE.brass, dash: [], label: 'brim', width: 2, row: 0 });
         },
       ],
     },
