@@ -1,0 +1,133 @@
+import type { Knex } from 'knex';
+import { claimDueTargets, releaseLeases, type ClaimedTarget } from './claim';
+import type { CollectorMetrics } from './metrics';
+import type { FinishedScrape } from './reading-rows';
+import { scrapeTarget, scrapeTimeoutMs, type ScrapeSettings } from './scrape';
+import { storeBatch, type StoreSettings } from './store';
+
+export interface LoopSettings {
+  /** Scrapes running at once in this process. */
+  concurrency: number;
+  /** Finished scrapes stored per transaction, at most. */
+  batchSize: number;
+  /** How long a finished scrape may wait for its batch to fill before it is stored anyway. */
+  flushAfterMs: number;
+  leaseMarginSeconds: number;
+  scrape: ScrapeSettings;
+  store: StoreSettings;
+  metrics: CollectorMetrics;
+}
+
+/**
+ * The collector's work loop: claim due targets while there is room, scrape
+ * each as soon as it is claimed, and store finished scrapes in batches. A
+ * slow target holds one slot, not a whole round. A failing claim or store
+ * (database restarting) is logged and tried again on the next tick; leases
+ * of anything lost that way expire and the targets come due again.
+ */
+export function createCollectorLoop(db: Knex, settings: LoopSettings) {
+  const { metrics, store } = settings;
+  const inFlight = new Map<number, Promise<void>>();
+  let finished: FinishedScrape[] = [];
+  let claiming = false;
+  let storing: Promise<void> | null = null;
+  let flushTimer: NodeJS.Timeout | undefined;
+  let stopping = false;
+  // Set once stop() has given leases back: a scrape that ends later is no longer ours to store.
+  let closed = false;
+
+  async function scrapeOne(target: ClaimedTarget): Promise<void> {
+    const takenAt = new Date();
+    metrics.lagSeconds.observe(Math.max(0, (takenAt.getTime() - target.dueAt.getTime()) / 1000));
+    const outcome = await scrapeTarget(target.url, target.sketchLabel, scrapeTimeoutMs(target.intervalSeconds), settings.scrape);
+    metrics.scrapes.inc({ result: outcome.ok ? 'ok' : 'failed' });
+    metrics.scrapeSeconds.observe(outcome.scrapeMs / 1000);
+    if (!outcome.ok) metrics.failures.inc({ kind: outcome.kind });
+    if (closed) return;
+    finished.push({ target, outcome, takenAt });
+    if (finished.length >= settings.batchSize) void flush();
+    else if (!flushTimer) flushTimer = setTimeout(() => void flush(), settings.flushAfterMs);
+  }
+
+  function start(target: ClaimedTarget): void {
+    const task = scrapeOne(target).finally(() => {
+      inFlight.delete(target.targetId);
+      metrics.inFlight.set(inFlight.size);
+      if (!stopping && inFlight.size <= settings.concurrency / 2) void claim();
+    });
+    inFlight.set(target.targetId, task);
+    metrics.inFlight.set(inFlight.size);
+  }
+
+  async function claim(): Promise<void> {
+    if (claiming || stopping) return;
+    claiming = true;
+    try {
+      for (;;) {
+        const room = settings.concurrency - inFlight.size;
+        if (room <= 0 || stopping) break;
+        const claimed = await claimDueTargets(db, store.owner, room, settings.leaseMarginSeconds);
+        claimed.forEach(start);
+        if (claimed.length < room) break;
+      }
+    } catch (err) {
+      metrics.roundErrors.inc({ stage: 'claim' });
+      store.log(`claim failed, retrying on the next tick: ${err instanceof Error ? err.message : String(err)}`);
+    } finally {
+      claiming = false;
+    }
+  }
+
+  async function flush(): Promise<void> {
+    clearTimeout(flushTimer);
+    flushTimer = undefined;
+    if (storing) return storing;
+    storing = (async () => {
+      while (finished.length > 0) {
+        const batch = finished.slice(0, settings.batchSize);
+        finished = finished.slice(batch.length);
+        const stopTimer = metrics.cycleSeconds.startTimer();
+        try {
+          const result = await storeBatch(db, batch, store);
+          metrics.leaseConflicts.inc(result.leaseConflicts);
+        } catch (err) {
+          metrics.roundErrors.inc({ stage: 'store' });
+          store.log(`storing ${batch.length} readings failed; their targets come due again when the leases expire: ${err instanceof Error ? err.message : String(err)}`);
+        } finally {
+          stopTimer();
+        }
+      }
+    })().finally(() => {
+      storing = null;
+    });
+    return storing;
+  }
+
+  return {
+    /** Called every second by the schedule: claims what is due and stores what has finished. */
+    async tick(): Promise<void> {
+      await claim();
+      if (finished.length > 0) await flush();
+    },
+    inFlight: () => inFlight.size,
+    /**
+     * Stops claiming, lets running scrapes finish for up to `graceMs`, stores
+     * them, and gives back the leases of any still running so that another
+     * collector takes them at once.
+     */
+    async stop(graceMs: number): Promise<{ released: number }> {
+      stopping = true;
+      const unfinished = [...inFlight.keys()];
+      let timer: NodeJS.Timeout | undefined;
+      await Promise.race([Promise.allSettled([...inFlight.values()]), new Promise((resolve) => (timer = setTimeout(resolve, graceMs)))]);
+      clearTimeout(timer);
+      const stillRunning = unfinished.filter((id) => inFlight.has(id));
+      await flush();
+      closed = true;
+      const released = await releaseLeases(db, store.owner, stillRunning).catch(() => 0);
+      return { released };
+    },
+  };
+}
+
+export type CollectorLoop = ReturnType<typeof createCollectorLoop>;

@@ -1,0 +1,57 @@
+import type { Knex } from 'knex';
+import { holdSchedulerLease } from '../scheduler-election';
+import type { AlertsHook } from '../sketch-level';
+import { rollUpHours } from './rollups';
+import { dropOldReadings, ensureDailyPartitions } from './retention';
+import { markStaleTargets } from './stale';
+
+export interface MaintenanceSettings {
+  owner: string;
+  rawRetentionDays: number;
+  /** How long the scheduler's lease lasts without renewal. */
+  leaseSeconds: number;
+  alertsHook: AlertsHook;
+  log: (message: string) => void;
+}
+
+const ROLLUP_EVERY_MS = 60_000;
+const RETENTION_EVERY_MS = 3_600_000;
+
+/**
+ * The maintenance jobs, run only by the elected scheduler: stale marking on
+ * every call, rollups every minute, partitions and retention every hour (and
+ * as soon as a process becomes the scheduler).
+ */
+export function createMaintenance(db: Knex, settings: MaintenanceSettings, clock: () => number = Date.now) {
+  let lastRollup = -Infinity;
+  let lastRetention = -Infinity;
+  let running = false;
+  return async function maintain(): Promise<{ scheduler: boolean }> {
+    if (running) return { scheduler: true };
+    running = true;
+    try {
+      if (!(await holdSchedulerLease(db, settings.owner, settings.leaseSeconds))) {
+        lastRollup = lastRetention = -Infinity;
+        return { scheduler: false };
+      }
+      await markStaleTargets(db, settings.alertsHook, settings.log);
+      const now = clock();
+      if (now - lastRollup >= ROLLUP_EVERY_MS) {
+        await rollUpHours(db);
+        lastRollup = now;
+      }
+      if (now - lastRetention >= RETENTION_EVERY_MS) {
+        await ensureDailyPartitions(db, now, 3, settings.log);
+        const { droppedPartitions, deletedRows } = await dropOldReadings(db, now, settings.rawRetentionDays);
+        if (droppedPartitions.length > 0 || deletedRows > 0) settings.log(`retention: dropped ${droppedPartitions.join(', ') || 'no partitions'}, deleted ${deletedRows} old readings`);
+        lastRetention = now;
+      }
+      return { scheduler: true };
+    } catch (err) {
+      settings.log(`maintenance failed, retrying on the next run: ${err instanceof Error ? err.message : String(err)}`);
+      return { scheduler: true };
+    } finally {
+      running = false;
+    }
+  };
+}

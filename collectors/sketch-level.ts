@@ -1,0 +1,49 @@
+import type { Knex } from 'knex';
+import { severity, type HealthLevel } from '../backend/src/maths';
+import { evaluateSketchAlerts, type SketchJudged } from '../backend/src/alerts/evaluate';
+import type { Clock } from '../backend/src/alerts/clock';
+import type { Judgement } from './judge';
+
+export type AlertsHook = (trx: Knex.Transaction, judged: SketchJudged[]) => Promise<void>;
+
+/** The alerts engine's own entry point, reading the system clock. */
+export const alertsHookWith = (clock?: Clock): AlertsHook => (trx, judged) => evaluateSketchAlerts(trx, judged, clock);
+
+interface InstanceRow {
+  sketch_id: number;
+  level: HealthLevel;
+  judgement: Judgement | null;
+  taken_at: Date | null;
+}
+
+/** A sketch is as bad as its worst instance; among equals, the one with the higher load speaks for it. */
+export function sketchVerdicts(instances: InstanceRow[], at: Date): SketchJudged[] {
+  const worst = new Map<number, InstanceRow>();
+  for (const row of instances) {
+    const current = worst.get(Number(row.sketch_id));
+    const worse =
+      !current ||
+      severity(row.level) > severity(current.level) ||
+      (severity(row.level) === severity(current.level) && (row.judgement?.load ?? -1) > (current.judgement?.load ?? -1));
+    if (worse) worst.set(Number(row.sketch_id), row);
+  }
+  return [...worst.entries()].map(([sketchId, row]) => ({ sketchId, level: row.level, judgement: row.judgement, at: row.taken_at ?? at }));
+}
+
+/**
+ * Re-judges each sketch from its instances' latest word and hands the result
+ * to the alerts, inside the caller's transaction. The alerts run under a
+ * savepoint: a fault there is logged and retried with the next round instead
+ * of throwing away the readings just stored.
+ */
+export async function rejudgeSketches(trx: Knex.Transaction, sketchIds: number[], hook: AlertsHook, log: (message: string) => void, at = new Date()): Promise<SketchJudged[]> {
+  if (sketchIds.length === 0) return [];
+  const instances: InstanceRow[] = await trx('target_status').whereIn('sketch_id', sketchIds).select('sketch_id', 'level', 'judgement', 'taken_at');
+  const judged = sketchVerdicts(instances, at);
+  try {
+    await trx.transaction((savepoint) => hook(savepoint, judged));
+  } catch (err) {
+    log(`alerts not evaluated for sketches ${sketchIds.slice(0, 10).join(', ')}: ${err instanceof Error ? err.message : String(err)}`);
+  }
+  return judged;
+}

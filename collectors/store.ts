@@ -1,0 +1,89 @@
+import type { Knex } from 'knex';
+import type { HealthLevel } from '../backend/src/maths';
+import { completeLeases } from './claim';
+import { loadHistory } from './reading-history';
+import { readingRows, type FinishedScrape, type PreviousStatus, type ReadingRows } from './reading-rows';
+import { nextScrapeAt } from './schedule';
+import { rejudgeSketches, type AlertsHook } from './sketch-level';
+
+export interface StoreSettings {
+  owner: string;
+  /** Good readings per target the forecast is fitted to. */
+  historyReadings: number;
+  alertsHook: AlertsHook;
+  log: (message: string) => void;
+}
+
+export interface StoredBatch {
+  stored: number;
+  /** Scrapes whose lease another collector had taken over by the time they finished; not stored. */
+  leaseConflicts: number;
+  levels: HealthLevel[];
+}
+
+async function previousStatuses(db: Knex, targetIds: number[]): Promise<Map<number, PreviousStatus>> {
+  const rows = await db('target_status')
+    .whereIn('target_id', targetIds)
+    .select('target_id', 'level', 'level_since', 'failures_in_row', 'stream_total', 'width', 'depth');
+  return new Map(
+    rows.map((r) => [
+      Number(r.target_id),
+      { level: r.level, levelSince: r.level_since, failuresInRow: r.failures_in_row, streamTotal: r.stream_total, width: r.width, depth: r.depth },
+    ]),
+  );
+}
+
+/** One scrape turned into rows; a judgement that throws is a fault of ours, stored as a failed reading rather than lost. */
+function rowsFor(done: FinishedScrape, previous: PreviousStatus | undefined, history: Map<number, { t: number; total: number }[]>, log: StoreSettings['log']): ReadingRows {
+  try {
+    return readingRows(done, previous, history.get(done.target.targetId) ?? []);
+  } catch (err) {
+    const reason = `could not judge the reading: ${err instanceof Error ? err.message : String(err)}`;
+    log(`target ${done.target.targetId}: ${reason}`);
+    return readingRows({ ...done, outcome: { ok: false, kind: 'bad value', reason, scrapeMs: done.outcome.scrapeMs } }, previous, []);
+  }
+}
+
+const STATUS_ON_SUCCESS = ['level', 'taken_at', 'last_ok_at', 'last_error', 'failures_in_row', 'stream_total', 'width', 'depth', 'counter_bytes', 'window_seconds', 'conservative', 'nonzero_cells', 'judgement', 'level_since'];
+const STATUS_ON_FAILURE = ['level', 'taken_at', 'last_error', 'failures_in_row', 'level_since'];
+
+/**
+ * Stores a batch of finished scrapes in one transaction: each target moves to
+ * its next slot and its lease is freed, its reading is inserted (one
+ * multi-row insert), its target_status updated, and every sketch touched is
+ * re-judged (worst instance) and handed to the alerts. Either all of it is
+ * written or none: a database that goes away mid-batch leaves no half-written
+ * reading, and the leases simply expire.
+ */
+export async function storeBatch(db: Knex, batch: FinishedScrape[], settings: StoreSettings): Promise<StoredBatch> {
+  if (batch.length === 0) return { stored: 0, leaseConflicts: 0, levels: [] };
+  const ids = batch.map((d) => d.target.targetId);
+  const previous = await previousStatuses(db, ids);
+  const good = batch.filter((d) => d.outcome.ok);
+  const history = await loadHistory(
+    db,
+    good.map((d) => ({ targetId: d.target.targetId, windowed: d.outcome.ok && d.outcome.sample.windowSeconds > 0 })),
+    settings.historyReadings,
+  );
+  const rows = batch.map((done) => ({ done, rows: rowsFor(done, previous.get(done.target.targetId), history, settings.log) }));
+
+  return db.transaction(async (trx) => {
+    const next = batch.map(({ target, takenAt }) => ({
+      targetId: target.targetId,
+      // At least half an interval after the slot just served, so a new target's first two scrapes are not back to back.
+      nextScrapeAt: new Date(nextScrapeAt(target.targetId, target.intervalSeconds, Math.max(takenAt.getTime(), target.dueAt.getTime() + target.intervalSeconds * 500))),
+    }));
+    const held = await completeLeases(trx, settings.owner, next);
+    const kept = rows.filter(({ done }) => held.has(done.target.targetId));
+    if (kept.length > 0) {
+      await trx('readings').insert(kept.map((r) => r.rows.reading));
+      const upsert = async (list: typeof kept, columns: string[]) => {
+        if (list.length > 0) await trx('target_status').insert(list.map((r) => r.rows.status)).onConflict('target_id').merge(columns);
+      };
+      await upsert(kept.filter((r) => r.rows.good), STATUS_ON_SUCCESS);
+      await upsert(kept.filter((r) => !r.rows.good), STATUS_ON_FAILURE);
+      await rejudgeSketches(trx, [...new Set(kept.map((r) => r.done.target.sketchId))], settings.alertsHook, settings.log);
+    }
+    return { stored: kept.length, leaseConflicts: batch.length - kept.length, levels: kept.map((r) => r.rows.level) };
+  });
+}
