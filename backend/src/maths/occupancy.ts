@@ -25,7 +25,8 @@ export type OccupancyEstimate =
 function fromZeroFraction(zeroFraction: number, width: number, rows: number): OccupancyEstimate {
   // No zero cell left: the estimate is unbounded, so say so instead of printing m·ln(m·…).
   if (zeroFraction === 0) return { saturated: true, zeroFraction: 0 };
-  const loadFactor = -Math.log(zeroFraction);
+  // 0 − ln V rather than −ln V, so an empty row reads +0, not −0.
+  const loadFactor = 0 - Math.log(zeroFraction);
   // e^t − t − 1 written as expm1(t) − t: near V = 1 the plain form cancels to nothing.
   const spread = Math.expm1(loadFactor) - loadFactor;
   return {
