@@ -16,6 +16,7 @@ export default defineConfig({
         test: {
           name: 'node',
           environment: 'node',
+          sequence: { groupOrder: 0 },
           include: ['tests/unit/**/*.test.ts', 'tests/api/**/*.test.ts', 'tests/collectors/**/*.test.ts', 'tests/ops/**/*.test.ts'],
           globalSetup: ['tests/setup/global-postgres.ts'],
           testTimeout: 30_000,
@@ -28,6 +29,7 @@ export default defineConfig({
         test: {
           name: 'frontend',
           environment: 'jsdom',
+          sequence: { groupOrder: 0 },
           include: ['tests/frontend/**/*.test.ts'],
           setupFiles: ['tests/frontend/setup.ts'],
           server: { deps: { inline: ['quasar'] } },
@@ -37,6 +39,8 @@ export default defineConfig({
         test: {
           name: 'browser',
           environment: 'node',
+          // After the node and component tests: chromium wants the machine's cores to itself.
+          sequence: { groupOrder: 1 },
           include: ['tests/browser/**/*.test.ts'],
           globalSetup: ['tests/setup/global-postgres.ts'],
           testTimeout: 60_000,
