@@ -70,11 +70,19 @@ export function neighbouringRanks(values: Uint32Array, k: number): [number, numb
   return [valueAt(first, firstBucket, firstRank), valueAt(second, secondBucket, secondRank)];
 }
 
-/** The row median in linear time; a row of doubles is rearranged, so pass one you no longer need in order. */
+/** Below this many cells, two 65,536-bucket tallies cost more than quickselect on a copy. */
+const COUNTING_FROM = 65_536;
+
+/**
+ * The row median in linear time. A row of 32-bit counters is left as it is
+ * (it may be the caller's own dump); a row of doubles is rearranged, so pass
+ * one you no longer need in order.
+ */
 export function medianInPlace(values: CounterRow): number {
   const n = values.length;
   if (n === 0) return Number.NaN;
   if (values instanceof Uint32Array) {
+    if (n < COUNTING_FROM) return medianInPlace(Float64Array.from(values));
     if (n % 2 === 1) return neighbouringRanks(values, n >> 1)[0];
     const [lower, upper] = neighbouringRanks(values, (n >> 1) - 1);
     return (lower + upper) / 2;
