@@ -74,28 +74,29 @@ export async function queryFleet(db: Db, f: FleetQuery): Promise<FleetRows> {
   const direction = f.order === 'asc' ? 'asc' : 'desc';
   const sortColumn = FLEET_SORTS[f.sort];
 
+  const order = `${sortColumn} ${direction} nulls last, severity desc, load desc nulls last, id`;
+  // Narrow rows for the whole fleet (numbers and names, no jsonb); the wide status only for the page shown.
   const sql = `
     with worst as (
-      select distinct on (ts.sketch_id) ts.*
+      select distinct on (ts.sketch_id) ts.sketch_id, ts.target_id, ts.level, ts.taken_at, ts.stream_total, ts.width, ts.depth,
+             (ts.judgement->>'load')::float8 as load, (ts.judgement->>'capacity')::float8 as capacity,
+             (ts.judgement->>'boundNow')::float8 as bound_now, (ts.judgement->>'missRisk')::float8 as miss_risk,
+             (ts.judgement->>'brimAt')::timestamptz as brim_date,
+             ts.width::float8 * ts.depth * ts.counter_bytes as memory_bytes
       from target_status ts
       order by ts.sketch_id, ${severitySql('ts.level')} desc, (ts.judgement->>'load')::float8 desc nulls last, ts.target_id
     ),
     per_sketch as (
       select tg.sketch_id, count(*)::int as instances,
-             coalesce(sum(ts.width::bigint * ts.depth * ts.counter_bytes), 0)::float8 as all_memory
+             coalesce(sum(ts.width::float8 * ts.depth * ts.counter_bytes), 0) as all_memory
       from targets tg left join target_status ts on ts.target_id = tg.id
       group by tg.sketch_id
     ),
     fleet as (
       select s.id, s.name as sketch, sv.name as service, t.slug as team, t.name as team_name,
              s.error_budget, s.confidence, s.watch_line, s.lead_time_days, s.scrape_interval_seconds, s.sized_total,
-             coalesce(w.level, '${UNREAD_LEVEL}') as level, ${severitySql(`coalesce(w.level, '${UNREAD_LEVEL}')`)} as severity,
-             w.level_since, w.taken_at, w.last_ok_at, w.last_error, w.stream_total, w.width, w.depth, w.counter_bytes,
-             w.window_seconds, w.conservative, w.judgement,
-             (w.judgement->>'load')::float8 as load, (w.judgement->>'capacity')::float8 as capacity,
-             (w.judgement->>'boundNow')::float8 as bound_now, (w.judgement->>'missRisk')::float8 as miss_risk,
-             (w.judgement->>'brimAt')::timestamptz as brim_date,
-             w.width::float8 * w.depth * w.counter_bytes as memory_bytes,
+             w.target_id, coalesce(w.level, '${UNREAD_LEVEL}') as level, ${severitySql(`coalesce(w.level, '${UNREAD_LEVEL}')`)} as severity,
+             w.taken_at, w.stream_total, w.width, w.depth, w.load, w.capacity, w.bound_now, w.miss_risk, w.brim_date, w.memory_bytes,
              coalesce(p.instances, 0) as instances, coalesce(p.all_memory, 0) as all_memory
       from sketches s
       join services sv on sv.id = s.service_id
@@ -104,13 +105,17 @@ export async function queryFleet(db: Db, f: FleetQuery): Promise<FleetRows> {
       left join per_sketch p on p.sketch_id = s.id
       ${where.length ? `where ${where.join(' and ')}` : ''}
     ),
-    shown as (select * from fleet ${levelFilter})
+    shown as (select * from fleet ${levelFilter}),
+    page as (
+      select f.id, f.sketch, f.service, f.team, f.team_name, f.error_budget, f.confidence, f.watch_line, f.lead_time_days,
+             f.scrape_interval_seconds, f.sized_total, f.level, f.instances, row_number() over (order by ${order}) as position,
+             ts.level_since, ts.taken_at, ts.last_ok_at, ts.last_error, ts.stream_total, ts.width, ts.depth, ts.counter_bytes,
+             ts.window_seconds, ts.conservative, ts.judgement
+      from (select * from shown order by ${order} limit ? offset ?) f
+      left join target_status ts on ts.target_id = f.target_id
+    )
     select
-      (select coalesce(json_agg(pg), '[]'::json) from (
-        select * from shown
-        order by ${sortColumn} ${direction} nulls last, severity desc, load desc nulls last, id
-        limit ? offset ?
-      ) pg) as items,
+      (select coalesce(json_agg(page order by position), '[]'::json) from page) as items,
       (select count(*)::int from shown) as total,
       (select coalesce(json_object_agg(level, n), '{}'::json) from (select level, count(*)::int as n from fleet group by level) x) as per_level,
       (select count(*)::int from fleet where brim_date > ? and brim_date <= ?::timestamptz + interval '7 days' and level <> 'brimmed') as within_7,

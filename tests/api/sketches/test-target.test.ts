@@ -44,6 +44,12 @@ describe('testing a target before saving', () => {
     // load = n / (m·E·δ^(1/k)), DESIGN.md
     expect(res.body.assessment.load).toBeCloseTo(4000 / capacityOf(272, 5, 100, 0.01), 9);
     expect(res.body.assessment.level).toBe('clear');
+    // Linear counting (Whang, Vander-Zanden & Taylor, ACM TODS 15(2), 1990): D ≈ −m·ln(V), V the zero fraction over the rows.
+    const zeroFraction = 1 - sketch.nonzeroCells().reduce((a, b) => a + b, 0) / (272 * 5);
+    expect(res.body.occupancy.zeroFraction).toBeCloseTo(zeroFraction, 12);
+    expect(res.body.occupancy.distinctEstimate).toBeCloseTo(-272 * Math.log(zeroFraction), 6);
+    expect(res.body.occupancy.distinctEstimate).toBeGreaterThan(250); // 300 distinct cards were fed
+    expect(res.body.occupancy.distinctEstimate).toBeLessThan(350);
   });
 
   it('when the target answers something else, is refused, or lies outside the allowlist, then the answer says exactly why', async () => {

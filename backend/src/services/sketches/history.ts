@@ -16,7 +16,9 @@ export interface HistoryPoint {
   totalMin: number | null;
   totalMax: number | null;
   totalLast: number | null;
+  /** Highest load in the bucket, against the sketch's current error budget and confidence. */
   loadMax: number | null;
+  /** Level of the bucket's last reading ('unreachable' for a failed one). */
   level: string | null;
   readings: number;
   failures: number;
@@ -46,7 +48,7 @@ export interface SketchHistory {
  * left out, so gaps in collection show as gaps on the chart.
  */
 export async function sketchHistory(db: Db, sketchId: number, q: HistoryQuery): Promise<SketchHistory> {
-  await requireSketch(db, sketchId);
+  const sketch = await requireSketch(db, sketchId);
   let targetId: number | undefined;
   if (q.instance !== undefined) {
     const target = await db('targets').where({ sketch_id: sketchId, instance: q.instance }).first('id');
@@ -57,7 +59,10 @@ export async function sketchHistory(db: Db, sketchId: number, q: HistoryQuery): 
     targetId = Number(target.id);
   }
   const range = { sketchId, targetId, from: q.from, to: q.to, points: q.points };
-  const [buckets, markers] = await Promise.all([bucketedReadings(db, range), markersInRange(db, range)]);
+  const [buckets, markers] = await Promise.all([
+    bucketedReadings(db, range, { errorBudget: sketch.error_budget, confidence: sketch.confidence }),
+    markersInRange(db, range),
+  ]);
   const bucketMs = (q.to.getTime() - q.from.getTime()) / q.points;
   return {
     sketchId,

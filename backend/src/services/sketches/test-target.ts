@@ -1,14 +1,22 @@
 import { assess, type Assessment } from '../../maths/assess';
-import { scrapeTarget, scrapeTimeoutMs, type FailureKind } from '../../../../collectors/scrape';
+import type { OccupancyEstimate } from '../../maths/occupancy';
+import { scrapeOnce } from '../../../../collectors/scrape-once';
+import type { FailureKind } from '../../../../collectors/scrape';
 import type { SketchSample } from '../../../../collectors/exposition/read-sketch';
 import type { TestTargetInput } from '../../routes/sketch-input';
 import type { TargetPolicy } from './target-check';
 
 export type TargetTest =
-  | { ok: true; targetUrl: string; sketch: string; reading: SketchSample & { memoryBytes: number }; assessment: Assessment | null; scrapeMs: number }
+  | {
+      ok: true;
+      targetUrl: string;
+      sketch: string;
+      reading: SketchSample & { memoryBytes: number };
+      occupancy: OccupancyEstimate;
+      assessment: Assessment | null;
+      scrapeMs: number;
+    }
   | { ok: false; targetUrl: string; sketch: string; kind: FailureKind; reason: string; scrapeMs: number };
-
-const TEST_INTERVAL_SECONDS = 30;
 
 /**
  * "Test the target" before saving: one scrape through the collectors' own code
@@ -17,12 +25,7 @@ const TEST_INTERVAL_SECONDS = 30;
  * that reading would give.
  */
 export async function testTarget(input: TestTargetInput, policy: TargetPolicy): Promise<TargetTest> {
-  const outcome = await scrapeTarget(input.targetUrl, input.sketch, scrapeTimeoutMs(TEST_INTERVAL_SECONDS), {
-    allowlist: policy.allowlist,
-    maxBytes: policy.maxBytes,
-    userAgent: 'Brimwatch target test',
-    resolve: policy.resolve,
-  });
+  const outcome = await scrapeOnce(input.targetUrl, input.sketch, { allowlist: policy.allowlist, maxBytes: policy.maxBytes, resolve: policy.resolve });
   const asked = { targetUrl: input.targetUrl, sketch: input.sketch };
   if (!outcome.ok) return { ok: false, ...asked, kind: outcome.kind, reason: outcome.reason, scrapeMs: outcome.scrapeMs };
   const s = outcome.sample;
@@ -30,5 +33,5 @@ export async function testTarget(input: TestTargetInput, policy: TargetPolicy): 
     input.errorBudget !== undefined && input.confidence !== undefined
       ? assess({ width: s.width, depth: s.depth, errorBudget: input.errorBudget, confidence: input.confidence, streamTotal: s.streamTotal, watchLine: input.watchLine })
       : null;
-  return { ok: true, ...asked, reading: { ...s, memoryBytes: s.width * s.depth * s.counterBytes }, assessment, scrapeMs: outcome.scrapeMs };
+  return { ok: true, ...asked, reading: { ...s, memoryBytes: s.width * s.depth * s.counterBytes }, occupancy: outcome.occupancy, assessment, scrapeMs: outcome.scrapeMs };
 }
