@@ -57,7 +57,12 @@ export function requireCounterBytes(value: number): CounterBytes {
 
 /** m·E·δ^(1/k): the largest stream total whose bound at confidence 1 − δ stays within E. */
 export function capacityOf(width: number, depth: number, errorBudget: number, delta: number): number {
-  return width * errorBudget * delta ** (1 / depth);
+  const capacity = width * errorBudget * delta ** (1 / depth);
+  // Only inputs at the edge of what a double holds get here (a budget of 10⁻³⁰⁰, say); every load would be 0 or ∞.
+  if (!(capacity > 0 && capacity < Infinity)) {
+    throw new SketchMathsError('errorBudget', `absurd size: a width of ${width}, depth ${depth} and error budget of ${errorBudget} give no usable capacity; use an error budget in the stream's own units.`);
+  }
+  return capacity;
 }
 
 /** Width and depth by Cormode & Muthukrishnan (J. Algorithms 55(1), 2005): m = ⌈e/ε⌉, k = ⌈ln(1/δ)⌉. */
