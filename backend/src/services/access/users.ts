@@ -1,4 +1,4 @@
-import { recordAudit } from '../../audit/record';
+import { recordAudit, type AuditActor } from '../../audit/record';
 import type { Caller } from '../../auth/caller';
 import type { Role } from '../../auth/roles';
 import type { Db } from '../../db';
@@ -29,7 +29,7 @@ export async function listUsers(db: Db) {
 }
 
 /** An admin changes a user's role; the last admin cannot be demoted, or nobody could manage roles again. */
-export async function changeRole(db: Db, actor: Caller, userId: number, role: Role) {
+export async function changeRole(db: Db, actor: AuditActor, userId: number, role: Role) {
   return db.transaction(async (trx) => {
     const user = await trx('users').where({ id: userId }).forUpdate().first('id', 'login', 'role');
     if (!user) throw new AppError(404, 'not_found', `There is no user ${userId}; list the users with GET /api/v1/users.`);
