@@ -33,7 +33,7 @@ async function promClientText(openMetrics: boolean): Promise<string> {
       for (const r of readings) gauge.set({ sketch: r.sketch }, values[name](r));
     }
   }
-  expect(registry.contentType).toBe(openMetrics ? EXPOSITION_CONTENT_TYPES.openMetrics : EXPOSITION_CONTENT_TYPES.prometheus);
+  expect(String(registry.contentType)).toBe(openMetrics ? EXPOSITION_CONTENT_TYPES.openMetrics : EXPOSITION_CONTENT_TYPES.prometheus);
   return registry.metrics();
 }
 
