@@ -19,6 +19,8 @@ import { userRoutes } from './routes/users';
 import { sketchRoutes } from './routes/sketches';
 import { metricsRoutes } from './routes/metrics';
 import { dumpRoutes } from './routes/dumps';
+import { historyRoutes } from './routes/history';
+import { alertRoutes } from './routes/alerts';
 
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../..');
 export const spaDir = path.join(root, 'frontend', 'dist');
@@ -69,7 +71,8 @@ export function createApp({ config, db, log = console.error }: AppDeps): express
   api.use(healthRoutes(db, version));
   api.use(authRoutes(config, db, signInClient(config)), userRoutes(db), teamRoutes(db), tokenRoutes(config, db), auditRoutes(db));
   api.use(sketchRoutes(db, config));
-  api.use(dumpRoutes(db, config));
+  api.use(dumpRoutes(db, config), historyRoutes(db));
+  api.use(alertRoutes(db));
   api.use(notFoundRoute);
   app.use('/api', api);
   app.use(metricsRoutes(db, config));
