@@ -9,7 +9,7 @@ const readings: SketchReading[] = [
 
 /** The same readings written by prom-client, an independent writer of both formats. */
 async function promClientText(openMetrics: boolean): Promise<string> {
-  const registry = new client.Registry();
+  const registry = new client.Registry<client.RegistryContentType>();
   if (openMetrics) registry.setContentType(client.Registry.OPENMETRICS_CONTENT_TYPE);
   const values: Record<CountminMetric, (r: SketchReading) => number> = {
     countmin_width: (r) => r.width,
@@ -33,7 +33,7 @@ async function promClientText(openMetrics: boolean): Promise<string> {
       for (const r of readings) gauge.set({ sketch: r.sketch }, values[name](r));
     }
   }
-  expect(String(registry.contentType)).toBe(openMetrics ? EXPOSITION_CONTENT_TYPES.openMetrics : EXPOSITION_CONTENT_TYPES.prometheus);
+  expect(registry.contentType).toBe(openMetrics ? EXPOSITION_CONTENT_TYPES.openMetrics : EXPOSITION_CONTENT_TYPES.prometheus);
   return registry.metrics();
 }
 
