@@ -3,12 +3,12 @@ import { HEALTH_LEVELS_WORST_FIRST, type HealthLevel } from '../maths/health-lev
 import { FLEET_SORTS, type FleetSort } from '../queries/fleet';
 
 /** A query parameter given once, repeated, or comma-separated, as a list of non-empty values. */
-const list = z
+export const list = z
   .union([z.string(), z.array(z.string())])
   .optional()
   .transform((v) => (v === undefined ? [] : [v].flat().flatMap((s) => s.split(',')).map((s) => s.trim()).filter(Boolean)));
 
-const wholeNumber = (field: string, low: number, high: number, fallback: number) => {
+export const wholeNumber = (field: string, low: number, high: number, fallback: number) => {
   const text = `${field} must be a whole number from ${low} to ${high}`;
   return z
     .string()
@@ -54,7 +54,7 @@ const DAY_MS = 86_400_000;
 export const MAX_RANGE_DAYS = 400;
 
 /** A time as ISO 8601 or milliseconds since the epoch. */
-const instant = (field: string) =>
+export const instant = (field: string) =>
   z
     .string()
     .optional()
