@@ -54,7 +54,7 @@ export async function stopChildren(children: Child[], graceMs = 10_000): Promise
 }
 
 /** Polls a URL until it answers with a status below 500, or gives up with the piece's name. */
-export async function waitForUrl(name: string, url: string, timeoutMs = 60_000): Promise<void> {
+export async function waitForUrl(name: string, url: string, timeoutMs = 180_000): Promise<void> {
   const deadline = Date.now() + timeoutMs;
   for (;;) {
     try {
