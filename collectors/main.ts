@@ -3,6 +3,7 @@ import { randomBytes } from 'node:crypto';
 import cron from 'node-cron';
 import { loadConfig } from '../backend/src/config';
 import { createDb } from '../backend/src/db';
+import { startAlertJobs } from '../backend/src/alerts/alert-jobs';
 import { recordHeartbeat, type CollectorIdentity } from './heartbeat';
 import { createCollectorLoop } from './loop';
 import { createMaintenance } from './maintenance/runner';
@@ -11,7 +12,7 @@ import { resignScheduler } from './scheduler-election';
 import { alertsHookWith } from './sketch-level';
 import { parseAllowlist } from './target-safety';
 
-/** The collectors process: scheduled work, on node-cron ticks, sharing the database with the web server. */
+/** The collectors process: the scrape loop, and node-cron for heartbeats and maintenance, sharing the database with the web server. */
 const config = loadConfig();
 const log = (message: string) => console.log(`[collectors] ${message}`);
 try {
@@ -31,6 +32,7 @@ const loop = createCollectorLoop(db, {
   concurrency: config.COLLECTOR_CONCURRENCY,
   batchSize: config.COLLECTOR_BATCH_SIZE,
   flushAfterMs: 200,
+  pollMs: 250,
   leaseMarginSeconds: config.COLLECTOR_LEASE_MARGIN_SECONDS,
   scrape: { allowlist: config.TARGET_ALLOWLIST, maxBytes: config.SCRAPE_MAX_BYTES, userAgent: `brimwatch-collector/${id}` },
   store: { owner: id, historyReadings: config.COLLECTOR_HISTORY_READINGS, alertsHook, log },
@@ -50,11 +52,12 @@ process.on('unhandledRejection', (err) => log(`unexpected failure, carrying on: 
 await beat();
 const tasks = [
   cron.schedule('*/10 * * * * *', beat, { name: 'heartbeat', noOverlap: true }),
-  cron.schedule('* * * * * *', () => loop.tick(), { name: 'scrape-tick', noOverlap: true }),
   cron.schedule('*/10 * * * * *', () => maintain().then(() => undefined), { name: 'maintenance', noOverlap: true }),
 ];
-void loop.tick();
+loop.start();
 void maintain();
+// Alert mail: the outbox sender, the alert review and the daily digest.
+const alertJobs = startAlertJobs(db, config, (message) => log(`alerts: ${message}`));
 log(`${id} started; metrics on http://${config.HOST}:${metricsServer.port}/metrics`);
 
 let stopping = false;
@@ -64,6 +67,7 @@ const shutdown = async (signal: string) => {
   // SIGTERM must end within 10 s even if the database hangs.
   setTimeout(() => process.exit(1), 10_000).unref();
   for (const task of tasks) await task.destroy();
+  await alertJobs.stop();
   const { released } = await loop.stop(7_000);
   log(`${signal}: stopped; ${released} unfinished leases given back`);
   await resignScheduler(db, id).catch(() => undefined);
