@@ -20,6 +20,7 @@ import { sketchRoutes } from './routes/sketches';
 import { metricsRoutes } from './routes/metrics';
 import { dumpRoutes } from './routes/dumps';
 import { historyRoutes } from './routes/history';
+import { importRoutes } from './routes/imports';
 import { alertRoutes } from './routes/alerts';
 
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../..');
@@ -71,7 +72,7 @@ export function createApp({ config, db, log = console.error }: AppDeps): express
   api.use(healthRoutes(db, version));
   api.use(authRoutes(config, db, signInClient(config)), userRoutes(db), teamRoutes(db), tokenRoutes(config, db), auditRoutes(db));
   api.use(sketchRoutes(db, config));
-  api.use(dumpRoutes(db, config), historyRoutes(db));
+  api.use(dumpRoutes(db, config), historyRoutes(db), importRoutes(db, config));
   api.use(alertRoutes(db));
   api.use(notFoundRoute);
   app.use('/api', api);
