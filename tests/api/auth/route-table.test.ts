@@ -47,6 +47,16 @@ const TABLE: Row[] = [
   { method: 'POST', route: '/api/v1/tokens', path: () => '/api/v1/tokens', body: { label: '' }, expected: everyone(400, { token: 403 }) },
   { method: 'DELETE', route: '/api/v1/tokens/:id', path: () => '/api/v1/tokens/999999', expected: everyone(404) },
   { method: 'GET', route: '/api/v1/audit', path: () => '/api/v1/audit', expected: adminOnly(200) },
+  // Uploads and history: a JSON body where a multipart form is expected gets a 400 from those let in.
+  { method: 'GET', route: '/api/v1/dumps', path: () => '/api/v1/dumps', expected: everyone(200) },
+  { method: 'GET', route: '/api/v1/dumps/:id', path: () => '/api/v1/dumps/999999', expected: everyone(404) },
+  { method: 'POST', route: '/api/v1/dumps', path: () => '/api/v1/dumps', body: {}, expected: everyone(400, { viewer: 403 }) },
+  { method: 'GET', route: '/api/v1/history', path: () => '/api/v1/history', expected: everyone(200) },
+  { method: 'GET', route: '/api/v1/history.csv', path: () => '/api/v1/history.csv', expected: everyone(200) },
+  { method: 'GET', route: '/api/v1/imports/sketches/columns', path: () => '/api/v1/imports/sketches/columns', expected: everyone(200) },
+  { method: 'GET', route: '/api/v1/imports/sketches/template', path: () => '/api/v1/imports/sketches/template', expected: everyone(200) },
+  { method: 'POST', route: '/api/v1/imports/sketches/preview', path: () => '/api/v1/imports/sketches/preview', body: {}, expected: everyone(400, { viewer: 403, responder: 403 }) },
+  { method: 'POST', route: '/api/v1/imports/sketches', path: () => '/api/v1/imports/sketches', body: {}, expected: everyone(400, { viewer: 403, responder: 403 }) },
   // Last: it ends the sessions the rows above use.
   { method: 'POST', route: '/api/auth/logout', path: () => '/api/auth/logout', expected: everyone(204, { anonymous: 204 }) },
 ];
