@@ -26,15 +26,18 @@ export function createMaintenance(db: Knex, settings: MaintenanceSettings, clock
   let lastRollup = -Infinity;
   let lastRetention = -Infinity;
   let running = false;
+  let schedulerSince: Date | undefined;
   return async function maintain(): Promise<{ scheduler: boolean }> {
     if (running) return { scheduler: true };
     running = true;
     try {
       if (!(await holdSchedulerLease(db, settings.owner, settings.leaseSeconds))) {
         lastRollup = lastRetention = -Infinity;
+        schedulerSince = undefined;
         return { scheduler: false };
       }
-      await markStaleTargets(db, settings.alertsHook, settings.log);
+      schedulerSince ??= new Date(clock());
+      await markStaleTargets(db, settings.alertsHook, settings.log, schedulerSince);
       const now = clock();
       if (now - lastRollup >= ROLLUP_EVERY_MS) {
         await rollUpHours(db);
