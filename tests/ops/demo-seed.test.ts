@@ -44,7 +44,7 @@ describe('the demo seed', () => {
   it('when seeded, then the fleet already shows every level, and resets mark the restarts and windows', async () => {
     const levels = await tdb.db('target_status').distinct('level').pluck('level');
     expect(levels.sort()).toEqual(['brimmed', 'clear', 'stale', 'unreachable', 'watch']);
-    const resets = await tdb.db('readings as r').join('sketches as s', 's.id', 'r.sketch_id').where('r.is_reset', true).groupBy('s.name').select('s.name').count({ n: '*' });
+    const resets: { name: string; n: string }[] = await tdb.db('readings as r').join('sketches as s', 's.id', 'r.sketch_id').where('r.is_reset', true).groupBy('s.name').select('s.name').count({ n: '*' });
     const byName = Object.fromEntries(resets.map((r) => [r.name, Number(r.n)]));
     expect(byName['frequency-cap']).toBeGreaterThan(160); // hourly windows over a week
     expect(byName['per-key-quota']).toBe(14); // a daily restart of each of two replicas
