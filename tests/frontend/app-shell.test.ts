@@ -79,7 +79,14 @@ describe('the app shell', { timeout: 20_000 }, () => {
   });
 
   it('when / is opened, then it lands on the Fleet page and the tab says so', async () => {
-    answerWith({ '/api/health': HEALTHY, '/api/auth/me': SIGNED_OUT });
+    const emptyFleet = {
+      items: [],
+      total: 0,
+      page: 1,
+      pageSize: 50,
+      summary: { perLevel: {}, brimmingWithin7Days: 0, brimmingWithin30Days: 0, totalMemoryBytes: 0 },
+    };
+    answerWith({ '/api/health': HEALTHY, '/api/auth/me': SIGNED_OUT, '/api/v1/sketches': { status: 200, body: emptyFleet } });
     const { wrapper, router } = await mountApp('/');
     expect(router.currentRoute.value.name).toBe('fleet');
     expect(document.title).toBe('Fleet · Brimwatch');
