@@ -11,6 +11,8 @@ export interface RouteNamedMap {
   uploads: RouteRecordInfo<'uploads', '/uploads', NoParams, NoParams>;
   admin: RouteRecordInfo<'admin', '/admin', NoParams, NoParams>;
   sketch: RouteRecordInfo<'sketch', '/sketches/:id', { id: string | number }, { id: string }>;
+  'sketch-new': RouteRecordInfo<'sketch-new', '/sketches/new', NoParams, NoParams>;
+  'sketch-edit': RouteRecordInfo<'sketch-edit', '/sketches/:id/edit', { id: string | number }, { id: string }>;
   'sign-in': RouteRecordInfo<'sign-in', '/sign-in', NoParams, NoParams>;
   'not-found': RouteRecordInfo<'not-found', '/:path(.*)*', { path: string | string[] }, { path: string[] }>;
 }

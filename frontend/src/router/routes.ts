@@ -11,10 +11,22 @@ export const routes: RouteRecordRaw[] = [
   { path: '/uploads', name: 'uploads', component: () => import('@/pages/UploadsPage.vue'), meta: { title: 'Uploads' } },
   { path: '/admin', name: 'admin', component: () => import('@/pages/AdminPage.vue'), meta: { title: 'Admin' } },
   {
-    path: '/sketches/:id',
+    path: '/sketches/new',
+    name: 'sketch-new',
+    component: () => import('@/pages/SketchFormPage.vue'),
+    meta: { title: 'Register a sketch' },
+  },
+  {
+    path: '/sketches/:id(\\d+)',
     name: 'sketch',
     component: () => import('@/pages/SketchPage.vue'),
     meta: { title: (route) => ('id' in route.params ? `Sketch ${route.params.id}` : 'Sketch') },
+  },
+  {
+    path: '/sketches/:id(\\d+)/edit',
+    name: 'sketch-edit',
+    component: () => import('@/pages/SketchFormPage.vue'),
+    meta: { title: (route) => ('id' in route.params ? `Change sketch ${route.params.id}` : 'Change a sketch') },
   },
   { path: '/sign-in', name: 'sign-in', component: () => import('@/pages/SignInPage.vue'), meta: { title: 'Sign in' } },
   {
