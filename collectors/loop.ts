@@ -13,16 +13,21 @@ export interface LoopSettings {
   /** How long a finished scrape may wait for its batch to fill before it is stored anyway. */
   flushAfterMs: number;
   leaseMarginSeconds: number;
+  /** How often to look for due targets; a scrape starts at most about this late. */
+  pollMs: number;
   scrape: ScrapeSettings;
   store: StoreSettings;
   metrics: CollectorMetrics;
 }
 
+/** Batches stored at once by one process; each holds one database connection while it runs. */
+const STORES_AT_ONCE = 3;
+
 /**
- * The collector's work loop: claim due targets while there is room, scrape
+ * The collector's work loop: poll for due targets and claim them while there is room, scrape
  * each as soon as it is claimed, and store finished scrapes in batches. A
  * slow target holds one slot, not a whole round. A failing claim or store
- * (database restarting) is logged and tried again on the next tick; leases
+ * (database restarting) is logged and tried again on the next poll; leases
  * of anything lost that way expire and the targets come due again.
  */
 export function createCollectorLoop(db: Knex, settings: LoopSettings) {
@@ -30,8 +35,9 @@ export function createCollectorLoop(db: Knex, settings: LoopSettings) {
   const inFlight = new Map<number, Promise<void>>();
   let finished: FinishedScrape[] = [];
   let claiming = false;
-  let storing: Promise<void> | null = null;
+  const storing = new Set<Promise<void>>();
   let flushTimer: NodeJS.Timeout | undefined;
+  let pollTimer: NodeJS.Timeout | undefined;
   let stopping = false;
   // Set once stop() has given leases back: a scrape that ends later is no longer ours to store.
   let closed = false;
@@ -45,8 +51,8 @@ export function createCollectorLoop(db: Knex, settings: LoopSettings) {
     if (!outcome.ok) metrics.failures.inc({ kind: outcome.kind });
     if (closed) return;
     finished.push({ target, outcome, takenAt });
-    if (finished.length >= settings.batchSize) void flush();
-    else if (!flushTimer) flushTimer = setTimeout(() => void flush(), settings.flushAfterMs);
+    if (finished.length >= settings.batchSize) flush();
+    else if (!flushTimer) flushTimer = setTimeout(flush, settings.flushAfterMs);
   }
 
   function start(target: ClaimedTarget): void {
@@ -72,42 +78,66 @@ export function createCollectorLoop(db: Knex, settings: LoopSettings) {
       }
     } catch (err) {
       metrics.roundErrors.inc({ stage: 'claim' });
-      store.log(`claim failed, retrying on the next tick: ${err instanceof Error ? err.message : String(err)}`);
+      store.log(`claim failed, retrying on the next poll: ${err instanceof Error ? err.message : String(err)}`);
     } finally {
       claiming = false;
     }
   }
 
-  async function flush(): Promise<void> {
+  async function storeOne(batch: FinishedScrape[]): Promise<void> {
+    const stopTimer = metrics.cycleSeconds.startTimer();
+    try {
+      const result = await storeBatch(db, batch, store);
+      metrics.leaseConflicts.inc(result.leaseConflicts);
+    } catch (err) {
+      metrics.roundErrors.inc({ stage: 'store' });
+      store.log(`storing ${batch.length} readings failed; their targets come due again when the leases expire: ${err instanceof Error ? err.message : String(err)}`);
+    } finally {
+      stopTimer();
+    }
+  }
+
+  /**
+   * Starts storing what has finished, a batch per transaction, up to
+   * STORES_AT_ONCE transactions at a time: a store spends most of its time
+   * waiting on database round trips, so one at a time would cap the whole
+   * loop at one batch per chain of round trips.
+   */
+  function flush(): void {
     clearTimeout(flushTimer);
     flushTimer = undefined;
-    if (storing) return storing;
-    storing = (async () => {
-      while (finished.length > 0) {
-        const batch = finished.slice(0, settings.batchSize);
-        finished = finished.slice(batch.length);
-        const stopTimer = metrics.cycleSeconds.startTimer();
-        try {
-          const result = await storeBatch(db, batch, store);
-          metrics.leaseConflicts.inc(result.leaseConflicts);
-        } catch (err) {
-          metrics.roundErrors.inc({ stage: 'store' });
-          store.log(`storing ${batch.length} readings failed; their targets come due again when the leases expire: ${err instanceof Error ? err.message : String(err)}`);
-        } finally {
-          stopTimer();
-        }
-      }
-    })().finally(() => {
-      storing = null;
-    });
-    return storing;
+    while (finished.length > 0 && storing.size < STORES_AT_ONCE) {
+      const batch = finished.slice(0, settings.batchSize);
+      finished = finished.slice(batch.length);
+      const task: Promise<void> = storeOne(batch).finally(() => {
+        storing.delete(task);
+        if (!closed) flush();
+      });
+      storing.add(task);
+    }
+  }
+
+  /** Stores everything finished so far and waits until it is stored. */
+  async function drain(): Promise<void> {
+    flush();
+    while (storing.size > 0) {
+      await Promise.race(storing);
+      flush();
+    }
   }
 
   return {
-    /** Called every second by the schedule: claims what is due and stores what has finished. */
-    async tick(): Promise<void> {
-      await claim();
-      if (finished.length > 0) await flush();
+    /**
+     * Starts polling for due targets every `pollMs`. A timer of its own rather
+     * than a cron tick: a busy process gets a late poll instead of a skipped one.
+     */
+    start(): void {
+      const poll = async () => {
+        if (finished.length > 0) flush();
+        await claim();
+        if (!stopping) pollTimer = setTimeout(() => void poll(), settings.pollMs);
+      };
+      void poll();
     },
     inFlight: () => inFlight.size,
     /**
@@ -117,12 +147,13 @@ export function createCollectorLoop(db: Knex, settings: LoopSettings) {
      */
     async stop(graceMs: number): Promise<{ released: number }> {
       stopping = true;
+      clearTimeout(pollTimer);
       const unfinished = [...inFlight.keys()];
       let timer: NodeJS.Timeout | undefined;
       await Promise.race([Promise.allSettled([...inFlight.values()]), new Promise((resolve) => (timer = setTimeout(resolve, graceMs)))]);
       clearTimeout(timer);
       const stillRunning = unfinished.filter((id) => inFlight.has(id));
-      await flush();
+      await drain();
       closed = true;
       const released = await releaseLeases(db, store.owner, stillRunning).catch(() => 0);
       return { released };

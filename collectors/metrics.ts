@@ -29,7 +29,7 @@ export function createCollectorMetrics(db: Knex) {
     registers: [registry],
   });
   const leaseConflicts = new client.Counter({ name: 'brimwatch_collector_lease_conflicts_total', help: 'Finished scrapes not stored because their lease had passed to another collector.', registers: [registry] });
-  const roundErrors = new client.Counter({ name: 'brimwatch_collector_round_errors_total', help: 'Claims or stores that failed (database unreachable, …), retried on the next tick.', labelNames: ['stage'], registers: [registry] });
+  const roundErrors = new client.Counter({ name: 'brimwatch_collector_round_errors_total', help: 'Claims or stores that failed (database unreachable, …), retried on the next poll.', labelNames: ['stage'], registers: [registry] });
   const inFlight = new client.Gauge({ name: 'brimwatch_collector_scrapes_in_flight', help: 'Scrapes running now in this process.', registers: [registry] });
   new client.Gauge({
     name: 'brimwatch_collector_targets',

@@ -20,10 +20,11 @@ export async function loadHistory(db: Knex, requests: HistoryRequest[], rawLimit
   if (requests.length === 0) return history;
   const ids = requests.map((r) => r.targetId);
   const { rows } = await db.raw(
-    `select t.id as target_id, h.taken_at, h.stream_total, h.is_resize
+    // Times as epoch milliseconds: thousands of rows per batch, and a number costs far less to read than a date.
+    `select t.id as target_id, h.t, h.stream_total, h.is_resize
      from unnest(?::bigint[]) as t(id)
      cross join lateral (
-       select r.taken_at, r.stream_total, r.is_resize from readings r
+       select (extract(epoch from r.taken_at) * 1000)::float8 as t, r.taken_at, r.stream_total, r.is_resize from readings r
        where r.target_id = t.id and r.ok
        order by r.taken_at desc limit ?
      ) h`,
@@ -32,7 +33,7 @@ export async function loadHistory(db: Knex, requests: HistoryRequest[], rawLimit
   const raw = new Map<number, { t: number; total: number; isResize: boolean }[]>();
   for (const row of rows) {
     const list = raw.get(Number(row.target_id)) ?? [];
-    list.push({ t: new Date(row.taken_at).getTime(), total: Number(row.stream_total), isResize: row.is_resize });
+    list.push({ t: row.t, total: row.stream_total, isResize: row.is_resize });
     raw.set(Number(row.target_id), list);
   }
   for (const [targetId, newestFirst] of raw) {

@@ -58,19 +58,24 @@ const STATUS_ON_FAILURE = ['level', 'taken_at', 'last_error', 'failures_in_row',
 export async function storeBatch(db: Knex, batch: FinishedScrape[], settings: StoreSettings): Promise<StoredBatch> {
   if (batch.length === 0) return { stored: 0, leaseConflicts: 0, levels: [] };
   const ids = batch.map((d) => d.target.targetId);
-  const previous = await previousStatuses(db, ids);
   const good = batch.filter((d) => d.outcome.ok);
-  const history = await loadHistory(
-    db,
-    good.map((d) => ({ targetId: d.target.targetId, windowed: d.outcome.ok && d.outcome.sample.windowSeconds > 0 })),
-    settings.historyReadings,
-  );
+  // Two independent reads: asked at once, the batch waits for one round trip instead of two.
+  const [previous, history] = await Promise.all([
+    previousStatuses(db, ids),
+    loadHistory(
+      db,
+      good.map((d) => ({ targetId: d.target.targetId, windowed: d.outcome.ok && d.outcome.sample.windowSeconds > 0 })),
+      settings.historyReadings,
+    ),
+  ]);
   const rows = batch.map((done) => ({ done, rows: rowsFor(done, previous.get(done.target.targetId), history, settings.log) }));
 
   return db.transaction(async (trx) => {
+    // The next slot is the first after the scrape began, so a late scrape still leaves the following
+    // round its own scrape; and at least half an interval after the slot just served, so a new
+    // target's first two scrapes are not back to back.
     const next = batch.map(({ target, takenAt }) => ({
       targetId: target.targetId,
-      // At least half an interval after the slot just served, so a new target's first two scrapes are not back to back.
       nextScrapeAt: new Date(nextScrapeAt(target.targetId, target.intervalSeconds, Math.max(takenAt.getTime(), target.dueAt.getTime() + target.intervalSeconds * 500))),
     }));
     const held = await completeLeases(trx, settings.owner, next);

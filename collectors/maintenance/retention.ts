@@ -19,7 +19,10 @@ export async function ensureDailyPartitions(db: Knex, now: number, daysAhead: nu
     try {
       const exists = await db.raw('select to_regclass(?) as found', [name]);
       if (exists.rows[0].found) continue;
-      await db.raw(`create table ${name} partition of readings for values from (?) to (?)`, [new Date(start).toISOString(), new Date(start + DAY_MS).toISOString()]);
+      // DDL takes no bind parameters; both bounds are ISO strings made here, not input.
+      const from = new Date(start).toISOString();
+      const to = new Date(start + DAY_MS).toISOString();
+      await db.raw(`create table ${name} partition of readings for values from ('${from}') to ('${to}')`);
       created.push(name);
     } catch (err) {
       log(`partition ${name} not created (readings for that day may already sit in the default partition): ${err instanceof Error ? err.message : String(err)}`);
