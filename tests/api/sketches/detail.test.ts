@@ -62,4 +62,27 @@ describe('one sketch with its resize plan', () => {
     expect(plan).toMatchObject({ width: 3364, depth: 5, memoryBytes: 3364 * 5 * 4, widthBefore: 272, depthBefore: 5, memoryBytesBefore: 272 * 5 * 4, resizeNeeded: true });
     expect(plan.reason).toContain('3,364');
   });
+
+  it('when a cumulative sketch restarts every day, then the plan sizes for the trend of its daily peaks, not one run stretched over 90 days', async () => {
+    const now = Date.now();
+    const HOUR = 3_600_000;
+    // Runs of 24 h, the current one started 12 h ago; run k peaks at (100,000 + 10,000·k)·(elapsed / 24 h).
+    const runStart = (k: number) => now - 7 * DAY + 12 * HOUR + k * 24 * HOUR;
+    const points = Array.from({ length: 7 * 144 + 1 }, (_, i) => {
+      const t = now - 7 * DAY + i * 600_000;
+      const k = Math.floor((t - runStart(0)) / (24 * HOUR));
+      return { t, total: Math.floor((100_000 + 10_000 * k) * ((t - runStart(k)) / (24 * HOUR))) };
+    });
+    const fixture = await addSketch(w.db, { service: 'api-gateway', sketch: 'per-key-quota', team: 'edge', errorBudget: 1000, instances: [{ instance: 'gw-1', streamTotal: points[points.length - 1].total }] });
+    await w.db('readings').insert(
+      points.map((p) => ({ target_id: fixture.targetIds[0], sketch_id: fixture.id, taken_at: new Date(p.t), ok: true, stream_total: p.total, width: 272, depth: 5, counter_bytes: 4 })),
+    );
+    const plan = (await as(w.app, viewer).get(`/api/v1/sketches/${fixture.id}`)).body.resizePlan;
+    // Each run's last reading, 10 minutes before its end, holds 143/144 of its peak; those readings lie on a line
+    // rising 10,000 × 143/144 a day. The last finished run peaked 12 h 10 min ago at 150,000 × 143/144, so 90 days
+    // on: (150,000 + 10,000 × (90 + 0.5 + 10/1440)) × 143/144 ≈ 1,047,742 (worked by hand).
+    expect(plan.forecastTotal / 1_047_742).toBeCloseTo(1, 3);
+    // m = ⌈e·n₀/E⌉ (Cormode & Muthukrishnan 2005) with n₀ = 1.25 × the forecast and E = 1,000.
+    expect(plan.width).toBe(Math.ceil((Math.E * 1.25 * plan.forecastTotal) / 1000));
+  });
 });

@@ -8,6 +8,7 @@ const DAY_MS = 86_400_000;
 /** The forecast behind a plan looks back over a week, thinned to this many points (Theil–Sen is quadratic). */
 const LOOKBACK_DAYS = 7;
 const FIT_POINTS = 400;
+const MIN_RESTARTS_AS_RUNS = 2;
 
 export interface ResizeAdvice extends ResizePlan {
   horizonDays: number;
@@ -30,10 +31,14 @@ export async function resizeAdvice(
   const f = worst?.figures;
   if (!worst || !f || !f.width || !f.depth || !f.counterBytes || !f.capacity || f.streamTotal === null) return null;
   const points = await recentTotals(db, worst.targetId, sketch.id, new Date(now.getTime() - LOOKBACK_DAYS * DAY_MS), now, FIT_POINTS);
-  const forecast = forecastBrim({ points, capacity: f.capacity, windowSeconds: f.windowSeconds ?? 0, now: now.getTime() });
-  // A windowed sketch is judged on its peak per window, not on the total of the window still filling.
+  // A cumulative sketch that restarts often (say at every deploy) never holds more than one run's
+  // total: its runs are judged like windows, on their peaks, or one run's slope would be projected
+  // over the whole horizon as if the service never restarted again.
+  const restarts = points.filter((p, i) => i > 0 && p.total < points[i - 1].total).length;
+  const windowSeconds = (f.windowSeconds ?? 0) > 0 ? (f.windowSeconds as number) : restarts >= MIN_RESTARTS_AS_RUNS ? (LOOKBACK_DAYS * DAY_MS) / 1000 : 0;
+  const forecast = forecastBrim({ points, capacity: f.capacity, windowSeconds, now: now.getTime() });
   const peak = points.reduce((best, p) => Math.max(best, p.total), f.streamTotal);
-  const currentTotal = (f.windowSeconds ?? 0) > 0 ? peak : f.streamTotal;
+  const currentTotal = windowSeconds > 0 ? peak : f.streamTotal;
   const forecastTotal = forecastTotalAt({ forecast, currentTotal, now: now.getTime(), horizonDays: DEFAULT_HORIZON_DAYS });
   if (!(forecastTotal > 0)) return null;
   const plan = resizePlan({
