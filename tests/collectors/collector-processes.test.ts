@@ -113,4 +113,25 @@ describe('two collector processes sharing one fleet', () => {
     expect(byAgent('alpha')).toBeGreaterThan(targets.hits.length * 0.1);
     expect(byAgent('beta')).toBeGreaterThan(targets.hits.length * 0.1);
   }, 60_000);
+
+  it('when a collector is told to stop while scrapes hang, then it exits within 10 s and gives their leases back at once', async () => {
+    const paths = ['/stuck/0', '/stuck/1', '/stuck/2'];
+    paths.forEach((p) => targets.behaviours.set(p, { kind: 'hang' }));
+    // A 30-second interval gives a 10-second scrape timeout, longer than the stop's grace.
+    const { targetIds } = await addSketch(t.db, paths.map(targets.url), { intervalSeconds: 30 });
+    const collector = startCollector('gamma', t.url);
+    await collector.metricsPort;
+    const seen = async () => paths.every((p) => targets.hits.some((h) => h.path === p));
+    while (!(await seen())) await new Promise((resolve) => setTimeout(resolve, 100));
+    const leased = await t.db('targets').whereIn('id', targetIds).pluck('lease_owner');
+    expect(leased).toEqual(['gamma', 'gamma', 'gamma']);
+
+    const stopAt = Date.now();
+    collector.child.kill('SIGTERM');
+    expect(await collector.exited).toBe(0);
+    expect(Date.now() - stopAt).toBeLessThan(10_000);
+    const after = await t.db('targets').whereIn('id', targetIds).select('lease_owner', 'lease_expires_at');
+    expect(after).toEqual(targetIds.map(() => ({ lease_owner: null, lease_expires_at: null })));
+    expect(collector.output.join('')).toContain('SIGTERM: stopped; 3 unfinished leases given back');
+  }, 60_000);
 });
