@@ -42,7 +42,9 @@ async function fillAndSubmit(mounted: Mounted, targetUrl: string): Promise<void>
   await flushPromises();
 }
 
-const posts = (fetchMock: ReturnType<typeof answerWith>) => fetchMock.mock.calls.filter(([, init]) => (init as RequestInit | undefined)?.method === 'POST');
+/** The POSTs made, as (url, init): the fake's own signature names only the url. */
+const posts = (fetchMock: ReturnType<typeof answerWith>) =>
+  (fetchMock.mock.calls as unknown as [string, RequestInit | undefined][]).filter(([, init]) => init?.method === 'POST');
 
 // The first mount of a file loads Quasar and the page, which takes seconds on a busy machine.
 describe('the register form', { timeout: 20_000 }, () => {
@@ -67,7 +69,7 @@ describe('the register form', { timeout: 20_000 }, () => {
     await mounted.wrapper.findComponent({ name: 'QSelect' }).vm.$emit('update:modelValue', 'payments');
     await fillAndSubmit(mounted, 'http://10.0.4.7:9100/metrics');
     expect(posts(fetchMock)).toHaveLength(1);
-    expect(JSON.parse(String((posts(fetchMock)[0][1] as RequestInit).body))).toMatchObject({ team: 'payments', targetUrl: 'http://10.0.4.7:9100/metrics', errorBudget: 500 });
+    expect(JSON.parse(String(posts(fetchMock)[0][1]?.body))).toMatchObject({ team: 'payments', targetUrl: 'http://10.0.4.7:9100/metrics', errorBudget: 500 });
     expect(messageBeside(mounted, 'sketch-target-url')).toBe(refusal);
     mounted.wrapper.unmount();
   });
