@@ -106,4 +106,28 @@ describe('scrape → reading → judgement', () => {
     expect(minutesAhead).toBeLessThan(40);
     expect(j.level).toBe('watch');
   });
+
+  it('when a windowed sketch has just reset, then its forecast runs through the hourly peaks of the rollups and its level through the last peak', async () => {
+    serve('/windowed', { ...FIGURES, streamTotal: 10_000, windowSeconds: 3600 });
+    const { sketchId, targetIds } = await addSketch(t.db, [targets.url('/windowed')]);
+    const hour = Math.floor(Date.now() / 3_600_000) * 3_600_000;
+    // Six finished hourly windows whose peaks grow by 5,000 an hour: 50,000 … 75,000.
+    await t.db('reading_rollups_hourly').insert(
+      Array.from({ length: 6 }, (_, i) => {
+        const start = hour - (6 - i) * 3_600_000;
+        return { target_id: targetIds[0], sketch_id: sketchId, hour: new Date(start), readings: 100, failures: 0, max_stream_total: 50_000 + i * 5000, max_at: new Date(start + 50 * 60_000) };
+      }),
+    );
+    await collectRound(t.db);
+
+    const [reading] = await readingsOf(targetIds[0]);
+    const j = reading.judgement;
+    expect(j.judgedTotal).toBe(75_000);
+    expect(j.load).toBeCloseTo(75_000 / 108_245.34, 6);
+    expect(j.trend).toBe('rising');
+    // By hand: (108,245 − 75,000) / 5,000 an hour = 6.65 hours after the last peak.
+    const lastPeak = hour - 3_600_000 + 50 * 60_000;
+    expect((Date.parse(j.brimAt) - lastPeak) / 3_600_000).toBeCloseTo(6.65, 2);
+    expect(j.level).toBe('watch');
+  });
 });

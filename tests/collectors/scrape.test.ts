@@ -1,6 +1,7 @@
 import net from 'node:net';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { scrapeTarget, scrapeTimeoutMs } from '../../collectors/scrape';
+import { scrapeOnce } from '../../collectors/scrape-once';
 import { startLoopbackTargets, type LoopbackTargets } from './loopback-targets';
 
 const settings = { allowlist: '127.0.0.0/8', maxBytes: 64 * 1024, userAgent: 'brimwatch-test' };
@@ -61,5 +62,13 @@ describe('scrapeTarget', () => {
   it('when the interval is short, then the timeout stays below it (0.8 of it), and never above 10 s', () => {
     expect(scrapeTimeoutMs(5)).toBe(4000);
     expect(scrapeTimeoutMs(30)).toBe(10_000);
+  });
+
+  it('when a target is tested once, then the sample comes with the rows\' occupancy, or the reason it failed', async () => {
+    const tested = await scrapeOnce(targets.url('/good'), 'limiter', { allowlist: '127.0.0.0/8', maxBytes: 65536 });
+    // Linear counting over both rows (Whang et al. 1990): V = (40 + 39) / 200, D = −100·ln V.
+    expect(tested).toMatchObject({ ok: true, sample: { width: 100, depth: 2 }, occupancy: { saturated: false } });
+    if (tested.ok && !tested.occupancy.saturated) expect(tested.occupancy.distinctEstimate).toBeCloseTo(-100 * Math.log(79 / 200), 9);
+    expect(await scrapeOnce(targets.url('/error'), 'limiter', { allowlist: '127.0.0.0/8', maxBytes: 65536 })).toMatchObject({ ok: false, kind: 'http status', reason: 'HTTP status 503' });
   });
 });
