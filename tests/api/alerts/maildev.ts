@@ -38,8 +38,9 @@ export interface MailFake {
 
 const MAILDEV = path.resolve('node_modules/maildev/dist/bin/maildev.js');
 
+// maildev needs a few seconds to load on a busy 2-core machine; a minute is a generous ceiling.
 async function waitForApi(url: string, child: ChildProcess): Promise<void> {
-  for (let i = 0; i < 100; i++) {
+  for (let i = 0; i < 600; i++) {
     if (child.exitCode !== null) throw new Error(`maildev exited with ${child.exitCode} before answering`);
     try {
       if ((await fetch(url)).ok) return;
@@ -48,7 +49,7 @@ async function waitForApi(url: string, child: ChildProcess): Promise<void> {
     }
     await new Promise((r) => setTimeout(r, 100));
   }
-  throw new Error(`maildev did not answer on ${url} within 10 s`);
+  throw new Error(`maildev did not answer on ${url} within 60 s`);
 }
 
 /**
