@@ -13,7 +13,6 @@ interface InstanceRow {
   sketch_id: number;
   level: HealthLevel;
   judgement: Judgement | null;
-  taken_at: Date | null;
 }
 
 /** A sketch is as bad as its worst instance; among equals, the one with the higher load speaks for it. */
@@ -27,7 +26,8 @@ export function sketchVerdicts(instances: InstanceRow[], at: Date): SketchJudged
       (severity(row.level) === severity(current.level) && (row.judgement?.load ?? -1) > (current.judgement?.load ?? -1));
     if (worse) worst.set(Number(row.sketch_id), row);
   }
-  return [...worst.entries()].map(([sketchId, row]) => ({ sketchId, level: row.level, judgement: row.judgement, at: row.taken_at ?? at }));
+  // Judged now: a sketch that turned stale has an old last attempt, but the news is today's.
+  return [...worst.entries()].map(([sketchId, row]) => ({ sketchId, level: row.level, judgement: row.judgement, at }));
 }
 
 /**
@@ -38,7 +38,7 @@ export function sketchVerdicts(instances: InstanceRow[], at: Date): SketchJudged
  */
 export async function rejudgeSketches(trx: Knex.Transaction, sketchIds: number[], hook: AlertsHook, log: (message: string) => void, at = new Date()): Promise<SketchJudged[]> {
   if (sketchIds.length === 0) return [];
-  const instances: InstanceRow[] = await trx('target_status').whereIn('sketch_id', sketchIds).select('sketch_id', 'level', 'judgement', 'taken_at');
+  const instances: InstanceRow[] = await trx('target_status').whereIn('sketch_id', sketchIds).select('sketch_id', 'level', 'judgement');
   const judged = sketchVerdicts(instances, at);
   try {
     await trx.transaction((savepoint) => hook(savepoint, judged));

@@ -60,7 +60,7 @@ describe('levels from scraping', () => {
   it('when instances disagree, then the sketch takes the worst, and among equals the higher load', () => {
     const at = new Date(now);
     const row = (sketch_id: number, level: 'clear' | 'watch' | 'brimmed' | 'stale' | 'unreachable', load: number | null) =>
-      ({ sketch_id, level, judgement: load === null ? null : ({ load } as never), taken_at: at });
+      ({ sketch_id, level, judgement: load === null ? null : ({ load } as never) });
     const verdicts = sketchVerdicts([row(1, 'clear', 0.2), row(1, 'unreachable', null), row(1, 'watch', 0.9), row(2, 'watch', 0.85), row(2, 'watch', 0.95), row(3, 'stale', null), row(3, 'brimmed', 1.2)], at);
     expect(verdicts.map((v) => [v.sketchId, v.level, v.judgement?.load ?? null])).toEqual([[1, 'unreachable', null], [2, 'watch', 0.95], [3, 'brimmed', 1.2]]);
   });
