@@ -66,9 +66,13 @@ export async function startMailFake(again?: Pick<MailFake, 'smtpPort' | 'webPort
     [MAILDEV, '--smtp', String(smtpPort), '--ip', '127.0.0.1', '--web', String(webPort), '--web-ip', '127.0.0.1', '--mail-directory', mailDir, '--silent'],
     { stdio: 'ignore' },
   );
+  // If the test process ends without its afterAll (an interrupted run), the mail fake must not outlive it.
+  const reap = () => child.kill('SIGKILL');
+  process.once('exit', reap);
   const api = `http://127.0.0.1:${webPort}/api/email`;
   await waitForApi(api, child);
   const stop = async () => {
+    process.off('exit', reap);
     if (child.exitCode !== null) return;
     const exited = new Promise((r) => child.once('exit', r));
     child.kill('SIGTERM');
