@@ -23,6 +23,11 @@ export function onUnauthorized(handler: UnauthorizedHandler): void {
   unauthorized = handler;
 }
 
+/** For requests made outside `request` (uploads with progress): the same reaction to a 401. */
+export function reportUnauthorized(): void {
+  unauthorized();
+}
+
 function urlFor(path: string, query: RequestOptions['query']): string {
   const params = new URLSearchParams();
   for (const [key, value] of Object.entries(query ?? {})) {

@@ -1,0 +1,60 @@
+// The history API: level timelines per sketch, and the same as a CSV file.
+import { get } from './client';
+import type { Level } from '@/utils/levels';
+
+export interface HistorySpan {
+  from: string;
+  to: string;
+  level: Level | null;
+}
+
+export interface HistoryAlert {
+  at: string;
+  alertId: number;
+  kind: string;
+  level: string;
+  actor: string;
+  note: string | null;
+}
+
+export interface SketchTimeline {
+  id: number;
+  service: string;
+  sketch: string;
+  team: string;
+  teamName: string;
+  spans: HistorySpan[];
+  alerts: HistoryAlert[];
+  secondsAt: Record<Level, number>;
+}
+
+export interface FleetHistory {
+  from: string;
+  to: string;
+  end: string;
+  resolution: 'readings' | 'hourly';
+  page: number;
+  pageSize: number;
+  total: number;
+  sketches: SketchTimeline[];
+}
+
+export interface HistoryQuery {
+  from: string;
+  to: string;
+  team?: string;
+  service?: string;
+  page?: number;
+  pageSize?: number;
+}
+
+export function fetchHistory(query: HistoryQuery, signal?: AbortSignal): Promise<FleetHistory> {
+  return get<FleetHistory>('/api/v1/history', { query: { ...query }, signal });
+}
+
+/** The export is a plain link: the browser downloads the server's attachment with the session cookie. */
+export function historyCsvUrl(query: HistoryQuery): string {
+  const params = new URLSearchParams();
+  for (const [key, value] of Object.entries(query)) if (value !== undefined && key !== 'page' && key !== 'pageSize') params.set(key, String(value));
+  return `/api/v1/history.csv?${params.toString()}`;
+}
