@@ -18,6 +18,8 @@ import { tokenRoutes } from './routes/tokens';
 import { userRoutes } from './routes/users';
 import { sketchRoutes } from './routes/sketches';
 import { metricsRoutes } from './routes/metrics';
+import { fleetSnapshot } from './services/sketches/fleet-snapshot';
+import { fleetRows } from './queries/fleet';
 import { dumpRoutes } from './routes/dumps';
 import { historyRoutes } from './routes/history';
 import { importRoutes } from './routes/imports';
@@ -71,12 +73,13 @@ export function createApp({ config, db, log = console.error }: AppDeps): express
   api.use(refuseCrossSite(config.publicUrl), sessions.middleware, identifyCaller(db, config.SESSION_ABSOLUTE_HOURS * 3600_000));
   api.use(healthRoutes(db, version));
   api.use(authRoutes(config, db, signInClient(config)), userRoutes(db), teamRoutes(db), tokenRoutes(config, db), auditRoutes(db));
-  api.use(sketchRoutes(db, config));
+  const fleet = fleetSnapshot(() => fleetRows(db), config.FLEET_SNAPSHOT_MS, log);
+  api.use(sketchRoutes(db, config, fleet));
   api.use(dumpRoutes(db, config), historyRoutes(db), importRoutes(db, config));
   api.use(alertRoutes(db));
   api.use(notFoundRoute);
   app.use('/api', api);
-  app.use(metricsRoutes(db, config));
+  app.use(metricsRoutes(db, config, fleet));
 
   app.use(express.static(spaDir, { index: false, maxAge: '1h' }));
   app.get(/^(?!\/api\/).*/, (_req, res, next) => {

@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { HEALTH_LEVELS_WORST_FIRST, type HealthLevel } from '../maths/health-levels';
-import { FLEET_SORTS, type FleetSort } from '../queries/fleet';
+import { FLEET_SORTS, type FleetSort } from '../services/sketches/fleet-table';
 
 /** A query parameter given once, repeated, or comma-separated, as a list of non-empty values. */
 export const list = z

@@ -5,7 +5,8 @@ import type { Db } from '../db';
 import { allow } from '../auth/permission';
 import { identifyCaller } from '../auth/identify';
 import { HEALTH_LEVELS_WORST_FIRST } from '../maths/health-levels';
-import { sketchGauges } from '../queries/fleet-gauges';
+import type { FleetRow } from '../queries/fleet';
+import type { FleetSnapshot } from '../services/sketches/fleet-snapshot';
 
 /**
  * The web server's own /metrics, so an existing metrics system can watch the
@@ -13,9 +14,9 @@ import { sketchGauges } from '../queries/fleet-gauges';
  * It names every service and sketch, so it is for viewers and up: a scraper
  * sends a viewer's API token as "Authorization: Bearer <token>".
  */
-export function metricsRoutes(db: Db, config: Config): Router {
+export function metricsRoutes(db: Db, config: Config, snapshot: FleetSnapshot): Router {
   const registry = new Registry();
-  let rows: Awaited<ReturnType<typeof sketchGauges>> = [];
+  let rows: FleetRow[] = [];
   new Gauge({
     name: 'brimwatch_sketches',
     help: 'Sketches at each level (the worst instance decides).',
@@ -40,8 +41,8 @@ export function metricsRoutes(db: Db, config: Config): Router {
   const router = Router();
   router.use('/metrics', identifyCaller(db, config.SESSION_ABSOLUTE_HOURS * 3600_000));
   router.get('/metrics', allow('viewer'), async (_req, res) => {
-    // One query per scrape, read by both gauges (prom-client collects them concurrently).
-    rows = await sketchGauges(db);
+    // Both gauges read the same snapshot (prom-client collects them concurrently).
+    rows = await snapshot.rows();
     const body = await registry.metrics();
     res.type(registry.contentType).send(body);
   });

@@ -8,6 +8,7 @@ import { parseInput } from '../http/validate';
 import { changeSketch, removeSketch } from '../services/sketches/change';
 import { sketchDetail } from '../services/sketches/detail';
 import { listFleet } from '../services/sketches/fleet';
+import type { FleetSnapshot } from '../services/sketches/fleet-snapshot';
 import { sketchHistory } from '../services/sketches/history';
 import { registerSketch } from '../services/sketches/register';
 import { targetPolicyOf } from '../services/sketches/target-check';
@@ -23,18 +24,19 @@ const caller = (req: Request): Caller => req.user as Caller;
  * a sketch is for the owners of its team and for sre and admin (checked per
  * sketch after the route's declaration lets owners in).
  */
-export function sketchRoutes(db: Db, config: Config): Router {
+export function sketchRoutes(db: Db, config: Config, snapshot: FleetSnapshot): Router {
   const router = Router();
   const policy = targetPolicyOf(config);
 
   router.get('/v1/sketches', allow('viewer'), async (req, res) => {
     const query = parseInput(fleetQueryInput, req.query, 'query');
-    res.json(await listFleet(db, { ...query, now: new Date() }));
+    res.json(await listFleet(db, snapshot, { ...query, now: new Date() }));
   });
 
   router.post('/v1/sketches', allow('owner'), async (req, res) => {
     const input = parseInput(registrationInput, req.body, 'body');
     const id = await registerSketch(db, caller(req), input, policy);
+    snapshot.invalidate();
     res.status(201).location(`/api/v1/sketches/${id}`).json(await sketchDetail(db, id, new Date()));
   });
 
@@ -60,11 +62,13 @@ export function sketchRoutes(db: Db, config: Config): Router {
       }
     }
     await changeSketch(db, caller(req), id, parseInput(changeInput, req.body, 'body'), policy);
+    snapshot.invalidate();
     res.json(await sketchDetail(db, id, new Date()));
   });
 
   router.delete('/v1/sketches/:id', allow('owner'), async (req, res) => {
     await removeSketch(db, caller(req), idParam(req.params.id, 'sketch'));
+    snapshot.invalidate();
     res.status(204).end();
   });
 

@@ -105,4 +105,14 @@ describe('the fleet list', () => {
     const { default: request } = await import('supertest');
     expect((await request(w.app).get('/api/v1/sketches')).status).toBe(401);
   });
+
+  it('when a sketch is registered or deleted through the API, then the very next list shows it', async () => {
+    const sre = await w.tokenFor('sre');
+    expect((await list()).body.total).toBe(6);
+    const created = await as(w.app, sre).post('/api/v1/sketches').send({ service: 'search', sketch: 'fresh', team: 'discovery', targetUrl: 'http://127.0.0.1:9601/m', errorBudget: 5, confidence: 0.9 });
+    expect(created.status).toBe(201);
+    expect((await list('?q=fresh')).body.items.map((i: { id: number }) => i.id)).toEqual([created.body.id]);
+    expect((await as(w.app, sre).delete(`/api/v1/sketches/${created.body.id}`)).status).toBe(204);
+    expect((await list()).body.total).toBe(6);
+  });
 });

@@ -1,7 +1,8 @@
 import type { Db } from '../../db';
-import { HEALTH_LEVELS_WORST_FIRST } from '../../maths/health-levels';
-import { queryFleet, type FleetQuery } from '../../queries/fleet';
+import { statusesOf } from '../../queries/fleet';
 import { figuresOf, type Figures, type StatusRow } from './figures';
+import type { FleetSnapshot } from './fleet-snapshot';
+import { selectFleet, type FleetQuery, type FleetSummary } from './fleet-table';
 
 export interface SketchSettingsView {
   id: number;
@@ -24,12 +25,7 @@ export interface FleetPage {
   total: number;
   page: number;
   pageSize: number;
-  summary: {
-    perLevel: Record<string, number>;
-    brimmingWithin7Days: number;
-    brimmingWithin30Days: number;
-    totalMemoryBytes: number;
-  };
+  summary: FleetSummary;
 }
 
 interface SettingsColumns {
@@ -64,23 +60,20 @@ export function settingsView(row: SettingsColumns): SketchSettingsView {
 }
 
 /** The fleet table: every sketch judged by its worst instance, worst first unless the caller sorts otherwise. */
-export async function listFleet(db: Db, query: FleetQuery): Promise<FleetPage> {
-  const rows = await queryFleet(db, query);
-  const perLevel = Object.fromEntries(HEALTH_LEVELS_WORST_FIRST.map((level) => [level, rows.perLevel[level] ?? 0]));
+export async function listFleet(db: Db, snapshot: FleetSnapshot, query: FleetQuery): Promise<FleetPage> {
+  const { page, total, summary } = selectFleet(await snapshot.rows(), query);
+  // The page's figures come from the status rows as they are now, judgement included.
+  const statuses = await statusesOf(db, page.flatMap((r) => (r.target_id === null ? [] : [r.target_id])));
+  const byTarget = new Map<number, StatusRow>(statuses.map((s: StatusRow & { target_id: number }) => [Number(s.target_id), s]));
   return {
-    items: rows.items.map((row) => ({
-      ...settingsView(row as unknown as SettingsColumns),
-      ...figuresOf(row as unknown as StatusRow),
-      instanceCount: Number(row.instances),
+    items: page.map((row) => ({
+      ...settingsView(row),
+      ...figuresOf(row.target_id === null ? null : byTarget.get(row.target_id)),
+      instanceCount: row.instances,
     })),
-    total: rows.total,
+    total,
     page: query.page,
     pageSize: query.pageSize,
-    summary: {
-      perLevel,
-      brimmingWithin7Days: rows.brimmingWithin7Days,
-      brimmingWithin30Days: rows.brimmingWithin30Days,
-      totalMemoryBytes: rows.totalMemoryBytes,
-    },
+    summary,
   };
 }

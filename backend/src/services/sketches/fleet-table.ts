@@ -1,0 +1,105 @@
+import { HEALTH_LEVELS_WORST_FIRST, type HealthLevel } from '../../maths/health-levels';
+import type { FleetRow } from '../../queries/fleet';
+
+/** Columns the fleet table can be sorted by, each with the figure it sorts on. */
+export const FLEET_SORTS = {
+  service: (r: FleetRow) => r.service,
+  sketch: (r: FleetRow) => r.sketch,
+  team: (r: FleetRow) => r.team,
+  level: (r: FleetRow) => r.severity,
+  load: (r: FleetRow) => r.load,
+  streamTotal: (r: FleetRow) => r.stream_total,
+  capacity: (r: FleetRow) => r.capacity,
+  boundNow: (r: FleetRow) => r.bound_now,
+  missRisk: (r: FleetRow) => r.miss_risk,
+  brimDate: (r: FleetRow) => (r.brim_date ? new Date(r.brim_date).getTime() : null),
+  lastReadingAt: (r: FleetRow) => (r.taken_at ? new Date(r.taken_at).getTime() : null),
+  memoryBytes: (r: FleetRow) => r.memory_bytes,
+  errorBudget: (r: FleetRow) => r.error_budget,
+  width: (r: FleetRow) => r.width,
+  depth: (r: FleetRow) => r.depth,
+  instances: (r: FleetRow) => r.instances,
+} as const;
+
+export type FleetSort = keyof typeof FLEET_SORTS;
+
+export interface FleetQuery {
+  teams: string[];
+  services: string[];
+  levels: HealthLevel[];
+  q: string | undefined;
+  sort: FleetSort;
+  order: 'asc' | 'desc';
+  page: number;
+  pageSize: number;
+  now: Date;
+}
+
+export interface FleetSummary {
+  perLevel: Record<HealthLevel, number>;
+  brimmingWithin7Days: number;
+  brimmingWithin30Days: number;
+  totalMemoryBytes: number;
+}
+
+type Value = string | number | null;
+
+/** Ascending or descending as asked, with missing figures always last (a sketch not read yet has no load). */
+function compareValues(a: Value, b: Value, direction: 1 | -1): number {
+  if (a === null || b === null) return a === b ? 0 : a === null ? 1 : -1;
+  return (a < b ? -1 : a > b ? 1 : 0) * direction;
+}
+
+function worstFirst(a: FleetRow, b: FleetRow): number {
+  return b.severity - a.severity || compareValues(a.load, b.load, -1) || a.id - b.id;
+}
+
+const DAY_MS = 86_400_000;
+
+/** Sketches brimming within `days`: a brim date ahead, not yet brimmed. */
+const brimmingWithin = (rows: FleetRow[], now: number, days: number) =>
+  rows.filter((r) => r.level !== 'brimmed' && r.brim_date && new Date(r.brim_date).getTime() > now && new Date(r.brim_date).getTime() <= now + days * DAY_MS).length;
+
+/** Sorted once per snapshot and order: later requests only filter and page the sorted rows. */
+const sortedCache = new WeakMap<FleetRow[], Map<string, FleetRow[]>>();
+
+function sortedFleet(rows: FleetRow[], sort: FleetSort, order: 'asc' | 'desc'): FleetRow[] {
+  let bySort = sortedCache.get(rows);
+  if (!bySort) sortedCache.set(rows, (bySort = new Map()));
+  const cacheKey = `${sort} ${order}`;
+  let sorted = bySort.get(cacheKey);
+  if (!sorted) {
+    const key = FLEET_SORTS[sort];
+    const direction = order === 'asc' ? 1 : -1;
+    sorted = rows.slice().sort((a, b) => compareValues(key(a), key(b), direction) || worstFirst(a, b));
+    bySort.set(cacheKey, sorted);
+  }
+  return sorted;
+}
+
+/**
+ * The fleet table from the snapshot: filtered, summarised, sorted and paged.
+ * The summary covers the team/service/search filters but not the level filter,
+ * so the counts per level stay visible while one level is shown.
+ */
+export function selectFleet(rows: FleetRow[], q: FleetQuery): { page: FleetRow[]; total: number; summary: FleetSummary } {
+  const needle = q.q?.toLowerCase();
+  const matching = sortedFleet(rows, q.sort, q.order).filter(
+    (r) =>
+      (q.teams.length === 0 || q.teams.includes(r.team)) &&
+      (q.services.length === 0 || q.services.includes(r.service)) &&
+      (!needle || [r.service, r.sketch, r.team, r.team_name].some((text) => text.toLowerCase().includes(needle))),
+  );
+  const perLevel = Object.fromEntries(HEALTH_LEVELS_WORST_FIRST.map((level) => [level, 0])) as Record<HealthLevel, number>;
+  for (const r of matching) perLevel[r.level as HealthLevel]++;
+  const now = q.now.getTime();
+  const summary = {
+    perLevel,
+    brimmingWithin7Days: brimmingWithin(matching, now, 7),
+    brimmingWithin30Days: brimmingWithin(matching, now, 30),
+    totalMemoryBytes: matching.reduce((sum, r) => sum + Number(r.all_memory), 0),
+  };
+  const shown = q.levels.length === 0 ? matching : matching.filter((r) => q.levels.includes(r.level as HealthLevel));
+  const start = (q.page - 1) * q.pageSize;
+  return { page: shown.slice(start, start + q.pageSize), total: shown.length, summary };
+}
