@@ -29,6 +29,14 @@ export interface RangeQuery {
   points: number;
 }
 
+/** The `points + 1` edges of the range's buckets; the range includes `to`, so the last bucket ends just after it. */
+export function bucketEdges(q: RangeQuery): string[] {
+  const span = q.to.getTime() - q.from.getTime();
+  const edges = Array.from({ length: q.points + 1 }, (_, i) => new Date(q.from.getTime() + (span * i) / q.points).toISOString());
+  edges[q.points] = new Date(q.to.getTime() + 1).toISOString();
+  return edges;
+}
+
 export interface BudgetOfSketch {
   errorBudget: number;
   confidence: number;
@@ -43,15 +51,12 @@ export interface BudgetOfSketch {
  * each. Load is n / (m·E·δ^(1/k)) (DESIGN.md) against the sketch's current
  * budget, worked out from the indexed columns rather than each stored judgement.
  */
-export async function bucketedReadings(db: Db, q: RangeQuery, budget: BudgetOfSketch): Promise<BucketRow[]> {
-  const span = q.to.getTime() - q.from.getTime();
-  const edges = Array.from({ length: q.points + 1 }, (_, i) => new Date(q.from.getTime() + (span * i) / q.points).toISOString());
-  // The range includes `to`: the last bucket ends just after it.
-  edges[q.points] = new Date(q.to.getTime() + 1).toISOString();
+export async function bucketedReadings(db: Db, q: RangeQuery, budget: BudgetOfSketch, edges: string[], first: number): Promise<BucketRow[]> {
+  if (first >= q.points) return [];
   const target = q.targetId === undefined ? '' : 'and r.target_id = ?';
   const t = q.targetId === undefined ? [] : [q.targetId];
   const sql = `
-    select b.n - 1 as bucket, agg.*, good.stream_total as total_last, latest.level as level_last
+    select b.n - 1 + ? as bucket, agg.*, good.stream_total as total_last, latest.level as level_last
     from unnest(?::timestamptz[], ?::timestamptz[]) with ordinality as b(lo, hi, n)
     cross join lateral (
       select min(stream_total) as total_min, max(stream_total) as total_max,
@@ -73,7 +78,7 @@ export async function bucketedReadings(db: Db, q: RangeQuery, budget: BudgetOfSk
     ) latest on true
     where agg.readings > 0
     order by b.n`;
-  const bindings = [edges.slice(0, -1), edges.slice(1), budget.errorBudget, 1 - budget.confidence, q.sketchId, ...t, q.sketchId, ...t, q.sketchId, ...t];
+  const bindings = [first, edges.slice(first, -1), edges.slice(first + 1), budget.errorBudget, 1 - budget.confidence, q.sketchId, ...t, q.sketchId, ...t, q.sketchId, ...t];
   return db.transaction(async (trx) => {
     // A thousand small index scans look costly to the planner, and compiling them (JIT) would take longer than running them.
     await trx.raw('set local jit = off');

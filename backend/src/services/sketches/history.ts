@@ -1,6 +1,7 @@
 import type { Db } from '../../db';
 import { AppError } from '../../http/errors';
-import { bucketedReadings, markersInRange } from '../../queries/readings';
+import { bucketEdges, bucketedReadings, markersInRange } from '../../queries/readings';
+import { bucketedRollups, oldestRawReading, rollupMarkers } from '../../queries/rollups';
 import { requireSketch } from './detail';
 
 export interface HistoryQuery {
@@ -45,7 +46,8 @@ export interface SketchHistory {
 /**
  * A sketch's readings over a range, bucketed by time in the database: at most
  * `points` points however many readings lie in the range. Empty buckets are
- * left out, so gaps in collection show as gaps on the chart.
+ * left out, so gaps in collection show as gaps on the chart. Where the raw
+ * readings have aged out, the hourly rollups fill in.
  */
 export async function sketchHistory(db: Db, sketchId: number, q: HistoryQuery): Promise<SketchHistory> {
   const sketch = await requireSketch(db, sketchId);
@@ -59,10 +61,20 @@ export async function sketchHistory(db: Db, sketchId: number, q: HistoryQuery): 
     targetId = Number(target.id);
   }
   const range = { sketchId, targetId, from: q.from, to: q.to, points: q.points };
-  const [buckets, markers] = await Promise.all([
-    bucketedReadings(db, range, { errorBudget: sketch.error_budget, confidence: sketch.confidence }),
+  const edges = bucketEdges(range);
+  // Raw readings are dropped after RAW_RETENTION_DAYS; buckets wholly before the oldest one come from the hourly rollups.
+  const oldest = await oldestRawReading(db, sketchId, targetId);
+  const endAfterOldest = oldest === null ? -1 : edges.findIndex((edge, i) => i > 0 && new Date(edge) > oldest);
+  const firstRaw = endAfterOldest === -1 ? q.points : endAfterOldest - 1;
+  const budget = { errorBudget: sketch.error_budget, confidence: sketch.confidence };
+  const [rolled, raw, rolledMarkers, rawMarkers] = await Promise.all([
+    bucketedRollups(db, range, edges, 0, firstRaw - 1),
+    bucketedReadings(db, range, budget, edges, firstRaw),
+    firstRaw > 0 ? rollupMarkers(db, range, new Date(edges[firstRaw])) : [],
     markersInRange(db, range),
   ]);
+  const buckets = [...rolled, ...raw];
+  const markers = [...rolledMarkers, ...rawMarkers];
   const bucketMs = (q.to.getTime() - q.from.getTime()) / q.points;
   return {
     sketchId,
