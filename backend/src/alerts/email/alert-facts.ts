@@ -17,8 +17,10 @@ export { CAUTION };
 export function brimText(f: AlertFacts): string {
   if (f.load !== null && f.load >= 1) return f.brimDate ? `reached ${formatWhen(f.brimDate)}` : 'reached: the load is at or over capacity';
   if (f.brimDate) {
+    const [at, earliest] = [formatWhen(f.brimDate), formatWhen(f.brimEarliest)];
     const latest = f.brimLatest ? formatWhen(f.brimLatest) : 'no later bound (the slow edge of the trend does not rise)';
-    return `${formatWhen(f.brimDate)} (between ${formatWhen(f.brimEarliest)} and ${latest})`;
+    if (earliest === at && latest === at) return `${at} (the trend's range agrees to the minute)`;
+    return `${at} (between ${earliest} and ${latest})`;
   }
   if (f.trend === 'none') return `no trend${f.trendReason ? `: ${f.trendReason}` : ''}`;
   return '—';
