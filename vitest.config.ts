@@ -16,7 +16,7 @@ export default defineConfig({
           name: 'node',
           environment: 'node',
           sequence: { groupOrder: 0 },
-          include: ['tests/unit/**/*.test.ts', 'tests/api/**/*.test.ts', 'tests/collectors/**/*.test.ts', 'tests/ops/**/*.test.ts'],
+          include: ['tests/unit/**/*.test.ts', 'tests/api/**/*.test.ts', 'tests/collectors/**/*.test.ts', 'tests/ops/**/*.test.ts', 'tests/faults/**/*.test.ts'],
           globalSetup: ['tests/setup/global-postgres.ts'],
           testTimeout: 30_000,
           hookTimeout: 60_000,
