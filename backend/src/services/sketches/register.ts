@@ -61,6 +61,9 @@ export async function registerSketch(db: Db, user: Caller, input: RegistrationIn
       return id;
     });
   } catch (err) {
+    if (isUniqueViolation(err, 'services_name_unique')) {
+      throw new AppError(409, 'service_exists', `The service ${input.service} was registered by someone else at the same moment; send the request again.`, 'service');
+    }
     if (isUniqueViolation(err)) throw duplicate(input.service, input.sketch);
     throw err;
   }

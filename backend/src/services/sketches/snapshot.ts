@@ -19,7 +19,8 @@ export function instanceNameOf(targetUrl: string): string {
   return `${url.hostname}:${port}`;
 }
 
-/** PostgreSQL's unique_violation: a concurrent request registered the same name first. */
-export function isUniqueViolation(err: unknown): boolean {
-  return typeof err === 'object' && err !== null && (err as { code?: string }).code === '23505';
+/** PostgreSQL's unique_violation: a concurrent request registered the same name first; `constraint` narrows which. */
+export function isUniqueViolation(err: unknown, constraint?: string): boolean {
+  const e = err as { code?: string; constraint?: string } | null;
+  return typeof e === 'object' && e !== null && e.code === '23505' && (constraint === undefined || e.constraint === constraint);
 }
