@@ -60,21 +60,47 @@ const DAY_MS = 86_400_000;
 const brimmingWithin = (rows: FleetRow[], now: number, days: number) =>
   rows.filter((r) => r.level !== 'brimmed' && r.brim_date && new Date(r.brim_date).getTime() > now && new Date(r.brim_date).getTime() <= now + days * DAY_MS).length;
 
-/** Sorted once per snapshot and order: later requests only filter and page the sorted rows. */
-const sortedCache = new WeakMap<FleetRow[], Map<string, FleetRow[]>>();
+/**
+ * Sorted, filtered and summed once per snapshot and question: while a
+ * snapshot is served, repeated requests (the table refreshing itself, other
+ * pages of the same list) only pick their page.
+ */
+const answered = new WeakMap<FleetRow[], Map<string, { matching: FleetRow[]; summary: FleetSummary }>>();
+const MAX_QUESTIONS_PER_SNAPSHOT = 200;
 
-function sortedFleet(rows: FleetRow[], sort: FleetSort, order: 'asc' | 'desc'): FleetRow[] {
-  let bySort = sortedCache.get(rows);
-  if (!bySort) sortedCache.set(rows, (bySort = new Map()));
-  const cacheKey = `${sort} ${order}`;
-  let sorted = bySort.get(cacheKey);
-  if (!sorted) {
-    const key = FLEET_SORTS[sort];
-    const direction = order === 'asc' ? 1 : -1;
-    sorted = rows.slice().sort((a, b) => compareValues(key(a), key(b), direction) || worstFirst(a, b));
-    bySort.set(cacheKey, sorted);
-  }
-  return sorted;
+function sortRows(rows: FleetRow[], sort: FleetSort, order: 'asc' | 'desc'): FleetRow[] {
+  const key = FLEET_SORTS[sort];
+  const direction = order === 'asc' ? 1 : -1;
+  return rows.slice().sort((a, b) => compareValues(key(a), key(b), direction) || worstFirst(a, b));
+}
+
+function summarise(matching: FleetRow[], now: number): FleetSummary {
+  const perLevel = Object.fromEntries(HEALTH_LEVELS_WORST_FIRST.map((level) => [level, 0])) as Record<HealthLevel, number>;
+  for (const r of matching) perLevel[r.level as HealthLevel]++;
+  return {
+    perLevel,
+    brimmingWithin7Days: brimmingWithin(matching, now, 7),
+    brimmingWithin30Days: brimmingWithin(matching, now, 30),
+    totalMemoryBytes: matching.reduce((sum, r) => sum + Number(r.all_memory), 0),
+  };
+}
+
+function answer(rows: FleetRow[], q: FleetQuery): { matching: FleetRow[]; summary: FleetSummary } {
+  const needle = q.q?.toLowerCase();
+  const key = JSON.stringify([q.teams, q.services, needle, q.sort, q.order, q.now.getTime()]);
+  let byQuestion = answered.get(rows);
+  if (!byQuestion || byQuestion.size > MAX_QUESTIONS_PER_SNAPSHOT) answered.set(rows, (byQuestion = new Map()));
+  const known = byQuestion.get(key);
+  if (known) return known;
+  const matching = sortRows(rows, q.sort, q.order).filter(
+    (r) =>
+      (q.teams.length === 0 || q.teams.includes(r.team)) &&
+      (q.services.length === 0 || q.services.includes(r.service)) &&
+      (!needle || [r.service, r.sketch, r.team, r.team_name].some((text) => text.toLowerCase().includes(needle))),
+  );
+  const result = { matching, summary: summarise(matching, q.now.getTime()) };
+  byQuestion.set(key, result);
+  return result;
 }
 
 /**
@@ -83,22 +109,7 @@ function sortedFleet(rows: FleetRow[], sort: FleetSort, order: 'asc' | 'desc'): 
  * so the counts per level stay visible while one level is shown.
  */
 export function selectFleet(rows: FleetRow[], q: FleetQuery): { page: FleetRow[]; total: number; summary: FleetSummary } {
-  const needle = q.q?.toLowerCase();
-  const matching = sortedFleet(rows, q.sort, q.order).filter(
-    (r) =>
-      (q.teams.length === 0 || q.teams.includes(r.team)) &&
-      (q.services.length === 0 || q.services.includes(r.service)) &&
-      (!needle || [r.service, r.sketch, r.team, r.team_name].some((text) => text.toLowerCase().includes(needle))),
-  );
-  const perLevel = Object.fromEntries(HEALTH_LEVELS_WORST_FIRST.map((level) => [level, 0])) as Record<HealthLevel, number>;
-  for (const r of matching) perLevel[r.level as HealthLevel]++;
-  const now = q.now.getTime();
-  const summary = {
-    perLevel,
-    brimmingWithin7Days: brimmingWithin(matching, now, 7),
-    brimmingWithin30Days: brimmingWithin(matching, now, 30),
-    totalMemoryBytes: matching.reduce((sum, r) => sum + Number(r.all_memory), 0),
-  };
+  const { matching, summary } = answer(rows, q);
   const shown = q.levels.length === 0 ? matching : matching.filter((r) => q.levels.includes(r.level as HealthLevel));
   const start = (q.page - 1) * q.pageSize;
   return { page: shown.slice(start, start + q.pageSize), total: shown.length, summary };

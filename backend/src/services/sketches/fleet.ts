@@ -61,7 +61,9 @@ export function settingsView(row: SettingsColumns): SketchSettingsView {
 
 /** The fleet table: every sketch judged by its worst instance, worst first unless the caller sorts otherwise. */
 export async function listFleet(db: Db, snapshot: FleetSnapshot, query: FleetQuery): Promise<FleetPage> {
-  const { page, total, summary } = selectFleet(await snapshot.rows(), query);
+  // Brim dates are counted against the minute, so requests within one minute share one answer.
+  const now = new Date(Math.floor(query.now.getTime() / 60_000) * 60_000);
+  const { page, total, summary } = selectFleet(await snapshot.rows(), { ...query, now });
   // The page's figures come from the status rows as they are now, judgement included.
   const statuses = await statusesOf(db, page.flatMap((r) => (r.target_id === null ? [] : [r.target_id])));
   const byTarget = new Map<number, StatusRow>(statuses.map((s: StatusRow & { target_id: number }) => [Number(s.target_id), s]));
