@@ -22,6 +22,17 @@ export function axisStyle(): Pick<uPlot.Axis, 'font' | 'labelFont' | 'stroke' | 
   };
 }
 
+/** Text on a paper-coloured patch, so a label stays legible where a series crosses it. */
+export function labelAt(ctx: CanvasRenderingContext2D, text: string, x: number, y: number, colour: string): void {
+  canvasText(ctx, colour);
+  const width = ctx.measureText(text).width;
+  const pad = 2 * uPlot.pxRatio;
+  ctx.fillStyle = 'rgba(255, 253, 248, 0.85)';
+  ctx.fillRect(x - pad, y - 10 * uPlot.pxRatio, width + 2 * pad, 13 * uPlot.pxRatio);
+  ctx.fillStyle = colour;
+  ctx.fillText(text, x, y);
+}
+
 export function canvasText(ctx: CanvasRenderingContext2D, colour: string): void {
   ctx.font = `${11 * uPlot.pxRatio}px "JetBrains Mono", monospace`;
   ctx.fillStyle = colour;
@@ -51,8 +62,7 @@ export function drawMarkers(u: uPlot, markers: readonly ChartMarker[]): void {
     ctx.lineTo(x, top + height);
     ctx.stroke();
     if (x - lastLabelX >= LABEL_GAP * uPlot.pxRatio) {
-      canvasText(ctx, MARKER_COLOUR[m.kind]);
-      ctx.fillText(m.label, x + 3 * uPlot.pxRatio, top + height - 4 * uPlot.pxRatio);
+      labelAt(ctx, m.label, x + 3 * uPlot.pxRatio, top + height - 4 * uPlot.pxRatio, MARKER_COLOUR[m.kind]);
       lastLabelX = x;
     }
   }
@@ -66,8 +76,7 @@ export function labelLine(u: uPlot, y: number, text: string, colour: string, sca
   if (!Number.isFinite(py) || py < top || py > top + height) return;
   const ctx = u.ctx;
   ctx.save();
-  canvasText(ctx, colour);
-  ctx.fillText(text, left + 6 * uPlot.pxRatio, py - 4 * uPlot.pxRatio);
+  labelAt(ctx, text, left + 6 * uPlot.pxRatio, py - 4 * uPlot.pxRatio, colour);
   ctx.restore();
 }
 

@@ -3,7 +3,7 @@
 import uPlot from 'uplot';
 import { formatCompact, formatCount, formatRelative } from '@/utils/format';
 import { PALETTE } from '@/utils/palette';
-import { baseOptions, canvasText, drawMarkers, labelLine } from './chart-common';
+import { baseOptions, canvasText, drawMarkers, labelAt, labelLine } from './chart-common';
 import { chartEndX, type ForecastShape } from './brim-forecast';
 import type { ReadingSeries } from './reading-series';
 
@@ -61,7 +61,7 @@ function drawBrimDate(u: uPlot, f: ForecastShape): void {
   canvasText(ctx, PALETTE.brass);
   if (f.beyondView) {
     const text = `brims ${formatRelative(when)} →`;
-    ctx.fillText(text, x - ctx.measureText(text).width - 6 * uPlot.pxRatio, y - 8 * uPlot.pxRatio);
+    labelAt(ctx, text, x - ctx.measureText(text).width - 6 * uPlot.pxRatio, y - 8 * uPlot.pxRatio, PALETTE.brass);
   } else {
     ctx.fillStyle = PALETTE.brass;
     ctx.beginPath();
@@ -70,12 +70,13 @@ function drawBrimDate(u: uPlot, f: ForecastShape): void {
     const text = `brim date ${when.toLocaleDateString(undefined, { day: 'numeric', month: 'short' })}`;
     const width = ctx.measureText(text).width;
     const fitsRight = x + width + 10 * uPlot.pxRatio < u.bbox.left + u.bbox.width;
-    ctx.fillText(text, fitsRight ? x + 8 * uPlot.pxRatio : x - width - 8 * uPlot.pxRatio, y + 16 * uPlot.pxRatio);
+    labelAt(ctx, text, fitsRight ? x + 8 * uPlot.pxRatio : x - width - 8 * uPlot.pxRatio, y + 16 * uPlot.pxRatio, PALETTE.brass);
   }
   ctx.restore();
 }
 
-export function totalChart(series: ReadingSeries, forecast: ForecastShape | null, watchLine: number): TotalChart {
+/** With replicas, each point is the highest of them, so the legend says so. */
+export function totalChart(series: ReadingSeries, forecast: ForecastShape | null, watchLine: number, replicas = 1): TotalChart {
   const data = rows(series, forecast, watchLine);
   const peak = Math.max(0, ...(data[1] as (number | null)[]).map((v) => v ?? 0), ...(data[3] as (number | null)[]).map((v) => v ?? 0));
   const lastCapacity = series.capacities.at(-1) ?? forecast?.capacity ?? null;
@@ -90,7 +91,7 @@ export function totalChart(series: ReadingSeries, forecast: ForecastShape | null
         axes: [base.axes![0], { ...base.axes![1], values: (_u, splits) => splits.map(formatCompact) }],
         series: [
           base.series[0],
-          { label: 'stream total', stroke: PALETTE.primary, fill: TOTAL_FILL, width: 2, points: { show: false }, value: figure },
+          { label: replicas > 1 ? 'stream total (highest replica)' : 'stream total', stroke: PALETTE.primary, fill: TOTAL_FILL, width: 2, points: { show: false }, value: figure },
           { label: 'forecast', stroke: PALETTE.primary, dash: [6, 5], width: 1.5, spanGaps: true, points: { show: false }, value: figure },
           { label: 'brim', stroke: PALETTE.brass, width: 2, spanGaps: true, paths: uPlot.paths.stepped!({ align: 1 }), points: { show: false }, value: figure },
           { label: 'watch line', stroke: PALETTE.watch, dash: [1, 3], width: 1, spanGaps: true, paths: uPlot.paths.stepped!({ align: 1 }), points: { show: false }, value: figure },
