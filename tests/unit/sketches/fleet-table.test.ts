@@ -11,7 +11,7 @@ function row(id: number, over: Partial<FleetRow>): FleetRow {
   return {
     id, sketch: `sketch-${id}`, service: 'checkout', team: 'payments', team_name: 'Payments', error_budget: 100, confidence: 0.99,
     watch_line: 0.8, lead_time_days: 7, scrape_interval_seconds: 30, sized_total: null, target_id: id, level, severity: SEVERITY[level],
-    taken_at: NOW, stream_total: 1000, width: 272, depth: 5, load: 0.5, capacity: 2000, bound_now: 50, miss_risk: 0.01,
+    taken_at: NOW.getTime(), stream_total: 1000, width: 272, depth: 5, load: 0.5, capacity: 2000, bound_now: 50, miss_risk: 0.01,
     brim_date: null, memory_bytes: 5440, instances: 1, all_memory: 5440, ...over,
   };
 }
@@ -21,10 +21,10 @@ const query = (over: Partial<FleetQuery> = {}): FleetQuery => ({ teams: [], serv
 const fleet = [
   row(1, { level: 'clear', load: 0.3 }),
   row(2, { level: 'brimmed', load: 1.2, team: 'discovery', service: 'search' }),
-  row(3, { level: 'clear', load: 0.6, brim_date: new Date(NOW.getTime() + 20 * DAY) }),
+  row(3, { level: 'clear', load: 0.6, brim_date: NOW.getTime() + 20 * DAY }),
   row(4, { level: 'stale', load: null, stream_total: null, memory_bytes: null, all_memory: 0, target_id: null }),
-  row(5, { level: 'watch', load: 0.9, brim_date: new Date(NOW.getTime() + 3 * DAY), instances: 2, all_memory: 10_880, service: 'api-gateway', team: 'edge', team_name: 'Edge Platform' }),
-  row(6, { level: 'brimmed', load: 1.5, brim_date: new Date(NOW.getTime() - DAY) }),
+  row(5, { level: 'watch', load: 0.9, brim_date: NOW.getTime() + 3 * DAY, instances: 2, all_memory: 10_880, service: 'api-gateway', team: 'edge', team_name: 'Edge Platform' }),
+  row(6, { level: 'brimmed', load: 1.5, brim_date: NOW.getTime() - DAY }),
 ];
 const ids = (rows: FleetRow[]) => rows.map((r) => r.id);
 

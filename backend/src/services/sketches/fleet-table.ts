@@ -12,8 +12,8 @@ export const FLEET_SORTS = {
   capacity: (r: FleetRow) => r.capacity,
   boundNow: (r: FleetRow) => r.bound_now,
   missRisk: (r: FleetRow) => r.miss_risk,
-  brimDate: (r: FleetRow) => (r.brim_date ? new Date(r.brim_date).getTime() : null),
-  lastReadingAt: (r: FleetRow) => (r.taken_at ? new Date(r.taken_at).getTime() : null),
+  brimDate: (r: FleetRow) => r.brim_date,
+  lastReadingAt: (r: FleetRow) => r.taken_at,
   memoryBytes: (r: FleetRow) => r.memory_bytes,
   errorBudget: (r: FleetRow) => r.error_budget,
   width: (r: FleetRow) => r.width,
@@ -58,7 +58,7 @@ const DAY_MS = 86_400_000;
 
 /** Sketches brimming within `days`: a brim date ahead, not yet brimmed. */
 const brimmingWithin = (rows: FleetRow[], now: number, days: number) =>
-  rows.filter((r) => r.level !== 'brimmed' && r.brim_date && new Date(r.brim_date).getTime() > now && new Date(r.brim_date).getTime() <= now + days * DAY_MS).length;
+  rows.filter((r) => r.level !== 'brimmed' && r.brim_date !== null && r.brim_date > now && r.brim_date <= now + days * DAY_MS).length;
 
 /**
  * Sorted, filtered and summed once per snapshot and question: while a
