@@ -92,4 +92,21 @@ describe('the fleet filters and the address bar', { timeout: 20_000 }, () => {
     expect(row.text()).toContain('865 / 1\u2009000');
     mounted.wrapper.unmount();
   });
+
+  it('when 15 seconds pass, then the same filters are asked for again and the table stays on screen meanwhile', async () => {
+    vi.useFakeTimers({ toFake: ['setInterval', 'clearInterval'] });
+    try {
+      const mounted = await mountPage('/fleet?level=watch&q=card&sort=missRisk');
+      const before = fetchMock.mock.calls.length;
+      vi.advanceTimersByTime(15_000);
+      expect(mounted.wrapper.find('.fleet-table tbody tr').exists()).toBe(true);
+      await flushPromises();
+      expect(fetchMock.mock.calls.length).toBe(before + 1);
+      expect(Object.fromEntries(lastFleetQuery())).toMatchObject({ level: 'watch', q: 'card', sort: 'missRisk' });
+      expect(mounted.router.currentRoute.value.query).toEqual({ level: 'watch', q: 'card', sort: 'missRisk' });
+      mounted.wrapper.unmount();
+    } finally {
+      vi.useRealTimers();
+    }
+  });
 });

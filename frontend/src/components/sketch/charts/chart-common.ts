@@ -80,6 +80,17 @@ export function labelLine(u: uPlot, y: number, text: string, colour: string, sca
   ctx.restore();
 }
 
+/** The last point of the first series, which the legend shows while the pointer is elsewhere. */
+function latestIndex(u: uPlot): number | null {
+  const values = u.data[1] ?? [];
+  for (let i = values.length - 1; i >= 0; i--) if (values[i] != null) return i;
+  return null;
+}
+
+function legendOnLatest(u: uPlot): void {
+  if (u.cursor.idx == null) u.setLegend({ idx: latestIndex(u) ?? undefined });
+}
+
 export function baseOptions(width: number, opts: { xRange: [number, number]; yLabel: string }): uPlot.Options {
   return {
     width,
@@ -92,5 +103,6 @@ export function baseOptions(width: number, opts: { xRange: [number, number]; yLa
       { ...axisStyle(), label: opts.yLabel, size: 70, labelSize: 18 },
     ],
     series: [{ label: 'time' }],
+    hooks: { ready: [legendOnLatest], setCursor: [legendOnLatest], setData: [legendOnLatest] },
   };
 }

@@ -31,6 +31,7 @@ export function loadChart(series: ReadingSeries, watchLine: number): { data: uPl
           { label: 'watch line', stroke: PALETTE.watch, dash: [1, 3], width: 1, points: { show: false }, value: () => formatLoad(watchLine) },
         ],
         hooks: {
+          ...base.hooks,
           draw: [
             (u) => {
               drawMarkers(u, series.markers);

@@ -48,6 +48,7 @@ export function riskChart(series: ReadingSeries, delta: number): { data: uPlot.A
           { label: 'brim (δ)', stroke: PALETTE.brass, width: 2, points: { show: false }, value: () => formatRisk(delta) },
         ],
         hooks: {
+          ...base.hooks,
           draw: [
             (u) => {
               drawMarkers(u, series.markers);

@@ -97,6 +97,7 @@ export function totalChart(series: ReadingSeries, forecast: ForecastShape | null
           { label: 'watch line', stroke: PALETTE.watch, dash: [1, 3], width: 1, spanGaps: true, paths: uPlot.paths.stepped!({ align: 1 }), points: { show: false }, value: figure },
         ],
         hooks: {
+          ...base.hooks,
           drawAxes: [(u) => forecast && drawBand(u, forecast)],
           draw: [
             (u) => {
