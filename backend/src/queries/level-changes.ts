@@ -39,13 +39,16 @@ export interface LevelChangeQuery {
  * whose level differs from the one before, plus gaps (stale) and each
  * target's last point.
  */
+/** Read hour by hour, a gap shorter than an hour is below what the timeline resolves, so only longer ones count as stale. */
+const HOUR_SECONDS = 3600;
+
 export async function levelChanges(db: Q, q: LevelChangeQuery): Promise<LevelChangeRow[]> {
   const cut = q.hourly
     ? `coalesce((select max(h.hour) from reading_rollups_hourly h where h.target_id = t.id), '-infinity'::timestamptz)`
     : `coalesce((select date_trunc('hour', min(r.taken_at)) from readings r where r.target_id = t.id), 'infinity'::timestamptz)`;
   const sql = `
     with tg as (
-      select t.id as target_id, t.sketch_id, s.scrape_interval_seconds * ?::float8 as stale_after, ${cut} as cut
+      select t.id as target_id, t.sketch_id, greatest(s.scrape_interval_seconds * ?::float8, ?::float8) as stale_after, ${cut} as cut
       from targets t join sketches s on s.id = t.sketch_id
       where t.sketch_id = any(?::bigint[])
     ),
@@ -105,7 +108,7 @@ export async function levelChanges(db: Q, q: LevelChangeQuery): Promise<LevelCha
     order by target_id, at`;
   // A PostgreSQL array literal: Knex would spread a JS array into separate parameters.
   const ids = `{${q.sketchIds.map(Number).join(',')}}`;
-  const bindings = [q.staleAfterIntervals, ids, ids, q.from, q.to, q.failuresForUnreachable, q.failuresForUnreachable, ids, q.from, q.to, q.from, q.from];
+  const bindings = [q.staleAfterIntervals, q.hourly ? HOUR_SECONDS : 0, ids, ids, q.from, q.to, q.failuresForUnreachable, q.failuresForUnreachable, ids, q.from, q.to, q.from, q.from];
   const result = await db.raw(sql, bindings);
   return result.rows;
 }

@@ -105,21 +105,24 @@ describe('GET /api/v1/history: level changes and alerts per sketch over a period
     expect(spans[spans.length - 1].to).toBe(body.end);
   });
 
-  it('when the period is longer than two days, then hourly rollups give the levels, each vouching for its hour', async () => {
+  it('when the period is longer than two days, then hourly rollups give the levels, each vouching for its hour, and only hour-long gaps are stale', async () => {
     const db = world.tdb.db;
     const ads = await addSketch(db, 'ads', 'ads-ranking', 'impressions-per-shopper', ['ads-1']);
     const hours = Array.from({ length: 48 }, (_, i) => i - 48);
     await db('reading_rollups_hourly').insert(
       hours.map((h) => ({ target_id: ads.targetIds[0], sketch_id: ads.sketchId, hour: new Date(T0 + h * 60 * MIN), readings: 60, failures: 0, last_level: h < -24 ? 'clear' : 'watch' })),
     );
-    const body = await jsonOf(await get(`from=${encodeURIComponent(iso(-72 * 60))}&to=${encodeURIComponent(iso(60))}&sketch=${ads.sketchId}`));
+    // After the rolled-up hours, raw readings ten minutes apart: sparse for a one-minute interval, but within the hour.
+    for (let m = 0; m <= 60; m += 10) await addReadings(db, ads.sketchId, ads.targetIds[0], m, m, 'brimmed');
+    const body = await jsonOf(await get(`from=${encodeURIComponent(iso(-72 * 60))}&to=${encodeURIComponent(iso(180))}&sketch=${ads.sketchId}`));
     expect(body.resolution).toBe('hourly');
-    // The last rolled-up hour ends at T0; three one-minute intervals later the sketch is stale.
+    // The last reading is at minute 60; read hour by hour, the target turns stale an hour later.
     expect(body.sketches[0].spans).toEqual([
       { from: iso(-72 * 60), to: iso(-48 * 60), level: null },
       { from: iso(-48 * 60), to: iso(-24 * 60), level: 'clear' },
-      { from: iso(-24 * 60), to: iso(3), level: 'watch' },
-      { from: iso(3), to: iso(60), level: 'stale' },
+      { from: iso(-24 * 60), to: iso(0), level: 'watch' },
+      { from: iso(0), to: iso(120), level: 'brimmed' },
+      { from: iso(120), to: iso(180), level: 'stale' },
     ]);
   });
 
