@@ -47,7 +47,17 @@ describe('the inventory import card', { timeout: 20_000 }, () => {
 
   it('when the preview finds problems, then each shows beside its row and the import stays disabled', async () => {
     standInServer(SERVER);
-    const preview = { rows: [row(2, true), row(3, false, [{ field: 'targetUrl', code: 'target_not_allowed', status: 400, message: 'targetUrl is not allowed: outside TARGET_ALLOWLIST.' }])], ready: 1, withProblems: 1 };
+    const preview = {
+      rows: [
+        row(2, true),
+        row(3, false, [
+          { field: 'team', code: 'not_your_team', status: 403, message: 'You may not import a sketch for team discovery.' },
+          { field: 'targetUrl', code: 'target_not_allowed', status: 400, message: 'targetUrl is not allowed: outside TARGET_ALLOWLIST.' },
+        ]),
+      ],
+      ready: 1,
+      withProblems: 1,
+    };
     const uploads = standInUploads({ status: 200, body: preview });
     uploads.release();
     const { wrapper } = await mountPage('/uploads');
@@ -58,7 +68,8 @@ describe('the inventory import card', { timeout: 20_000 }, () => {
     await flushPromises();
     await flushPromises();
     expect(uploads.sent[0]).toEqual({ path: '/api/v1/imports/sketches/preview', fields: [['file', 'file:inventory.csv']] });
-    expect(card.find('[data-line="3"]').text()).toContain('targetUrl: targetUrl is not allowed: outside TARGET_ALLOWLIST.');
+    // The column is named where the message does not already start with it.
+    expect(card.findAll('[data-line="3"] li').map((li) => li.text())).toEqual(['team: You may not import a sketch for team discovery.', 'targetUrl is not allowed: outside TARGET_ALLOWLIST.']);
     expect(card.find('[data-line="2"]').text()).toContain('✓ ready');
     expect(card.find('[role="status"]').text()).toMatch(/1\s*row ready,\s*1\s*with problems/);
     expect(button(card, /^Import/).attributes('disabled')).toBeDefined();

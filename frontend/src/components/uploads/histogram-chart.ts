@@ -3,13 +3,29 @@
 // error budget E drawn as the brass brim: cells right of it are over budget.
 import uPlot from 'uplot';
 import type { HistogramBin } from '@/api/upload-types';
-import { axisStyle, canvasText, CHART_HEIGHT } from '@/components/sketch/charts/chart-common';
+import { axisStyle, CHART_HEIGHT, labelAt } from '@/components/sketch/charts/chart-common';
 import { formatCompact, formatCount } from '@/utils/format';
 import { PALETTE } from '@/utils/palette';
 
+/** A bin by its lower bound: the bars double in width, so the next label is where this one ends. */
 export function binLabel(bin: HistogramBin): string {
-  if (bin.from === bin.to) return formatCompact(bin.from);
-  return `${formatCompact(bin.from)}–${formatCompact(bin.to)}`;
+  return formatCompact(bin.from);
+}
+
+/** Every bin's label when there is room, else every second or fourth, so they never overlap. */
+function labelEvery(bins: number, width: number): number {
+  const room = Math.max(1, Math.floor(width / 56));
+  return bins <= room ? 1 : Math.ceil(bins / room);
+}
+
+/** Whole decades on the log axis: 1, 10, 100, … (at most six of them). */
+function decades(min: number, max: number): number[] {
+  const low = Math.max(0, Math.ceil(Math.log10(min)));
+  const high = Math.floor(Math.log10(max));
+  const step = Math.max(1, Math.ceil((high - low + 1) / 6));
+  const out: number[] = [];
+  for (let e = low; e <= high; e += step) out.push(10 ** e);
+  return out;
 }
 
 /** Bin index → cells; an empty bin has no bar (a log scale has no zero). */
@@ -39,11 +55,20 @@ export function histogramOptions(bins: HistogramBin[], errorBudget: number): (wi
     axes: [
       {
         ...axisStyle(),
-        label: 'counter value',
-        splits: () => bins.map((_, i) => i),
+        label: 'counter value (each bar runs to double its left edge)',
+        labelSize: 18,
+        splits: () => bins.map((_, i) => i).filter((i) => i % labelEvery(bins.length, width) === 0),
         values: (_u, splits) => splits.map((i) => (bins[i] ? binLabel(bins[i]) : '')),
       },
-      { ...axisStyle(), label: 'cells', size: 64, values: (_u, splits) => splits.map((v) => formatCompact(v)) },
+      {
+        ...axisStyle(),
+        label: 'cells',
+        size: 70,
+        labelSize: 18,
+        splits: (_u, _axis, min, max) => decades(min, max),
+        filter: (_u, splits) => splits,
+        values: (_u, splits) => splits.map((v) => formatCompact(v)),
+      },
     ],
     series: [
       {},
@@ -70,8 +95,7 @@ export function histogramOptions(bins: HistogramBin[], errorBudget: number): (wi
           ctx.moveTo(x, top);
           ctx.lineTo(x, top + height);
           ctx.stroke();
-          canvasText(ctx, PALETTE.brass);
-          ctx.fillText(`E = ${formatCompact(errorBudget)}`, x + 4 * uPlot.pxRatio, top + 12 * uPlot.pxRatio);
+          labelAt(ctx, `E = ${formatCompact(errorBudget)}`, x + 4 * uPlot.pxRatio, top + 12 * uPlot.pxRatio, PALETTE.brass);
           ctx.restore();
         },
       ],
