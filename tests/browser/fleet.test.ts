@@ -81,7 +81,7 @@ describe('the Fleet page in a real browser', () => {
     }).toBe(true);
   });
 
-  it('when a viewer opens the fleet, then there is no register button', async () => {
+  it('when a viewer opens the fleet, then there is no register button, and the register page says which roles may', async () => {
     const viewer = await stack.newPage();
     await stack.signIn(viewer, 'viewer');
     await viewer.waitForURL(/\/fleet/);
@@ -89,5 +89,8 @@ describe('the Fleet page in a real browser', () => {
     await expect.poll(() => viewer.getByRole('banner').innerText()).toMatch(/viewer/i);
     expect(await viewer.getByText('Register a sketch', { exact: true }).count()).toBe(0);
     await stack.shot(viewer, 'fleet-viewer');
+    await viewer.goto(`${stack.world.appUrl}/sketches/new`);
+    await viewer.getByText('Registering sketches is for owners, SREs and admins').waitFor();
+    expect(await viewer.locator('form').count()).toBe(0);
   });
 });
