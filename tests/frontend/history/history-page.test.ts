@@ -58,15 +58,15 @@ describe('the History page', { timeout: 20_000 }, () => {
     const { wrapper } = await open('/history?team=payments');
     expect(document.title).toBe('History · Brimwatch');
     expect(asked.find((a) => a.startsWith('GET /api/v1/history?'))).toMatch(/team=payments/);
-    const bar = wrapper.find('.timelines__bar');
-    expect(bar.findAll('.timelines__piece').map((p) => p.classes().find((c) => c.startsWith('timelines__piece--')))).toEqual([
-      'timelines__piece--clear',
-      'timelines__piece--watch',
-      'timelines__piece--brimmed',
-      'timelines__piece--clear',
+    const bar = wrapper.find('.history-bar');
+    expect(bar.findAll('.history-bar__piece').map((p) => p.classes().find((c) => c.startsWith('history-bar__piece--')))).toEqual([
+      'history-bar__piece--clear',
+      'history-bar__piece--watch',
+      'history-bar__piece--brimmed',
+      'history-bar__piece--clear',
     ]);
     expect(bar.attributes('aria-label')).toBe('checkout per-card-limiter: brimmed 10 min, watch 20 min, clear 30 min, 1 alert event');
-    expect(bar.findAll('.timelines__marker')).toHaveLength(1);
+    expect(bar.findAll('.history-bar__marker')).toHaveLength(1);
     expect(wrapper.find('[data-figure="watch"]').text()).toBe('20 min');
     expect(wrapper.find('[data-figure="brimmed"]').text()).toBe('10 min');
     wrapper.unmount();
