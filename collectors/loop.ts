@@ -35,6 +35,7 @@ export function createCollectorLoop(db: Knex, settings: LoopSettings) {
   const inFlight = new Map<number, Promise<void>>();
   let finished: FinishedScrape[] = [];
   let claiming = false;
+  let claimDone: Promise<void> = Promise.resolve();
   const storing = new Set<Promise<void>>();
   let flushTimer: NodeJS.Timeout | undefined;
   let pollTimer: NodeJS.Timeout | undefined;
@@ -65,22 +66,32 @@ export function createCollectorLoop(db: Knex, settings: LoopSettings) {
     metrics.inFlight.set(inFlight.size);
   }
 
-  async function claim(): Promise<void> {
-    if (claiming || stopping) return;
+  function claim(): Promise<void> {
+    if (claiming || stopping) return claimDone;
     claiming = true;
+    claimDone = claimWhileRoom().finally(() => {
+      claiming = false;
+    });
+    return claimDone;
+  }
+
+  async function claimWhileRoom(): Promise<void> {
     try {
       for (;;) {
         const room = settings.concurrency - inFlight.size;
         if (room <= 0 || stopping) break;
         const claimed = await claimDueTargets(db, store.owner, room, settings.leaseMarginSeconds);
+        if (stopping) {
+          // stop() began while this claim was on its way: hand the targets straight back instead of starting them.
+          await releaseLeases(db, store.owner, claimed.map((c) => c.targetId));
+          break;
+        }
         claimed.forEach(start);
         if (claimed.length < room) break;
       }
     } catch (err) {
       metrics.roundErrors.inc({ stage: 'claim' });
       store.log(`claim failed, retrying on the next poll: ${err instanceof Error ? err.message : String(err)}`);
-    } finally {
-      claiming = false;
     }
   }
 
@@ -148,6 +159,7 @@ export function createCollectorLoop(db: Knex, settings: LoopSettings) {
     async stop(graceMs: number): Promise<{ released: number }> {
       stopping = true;
       clearTimeout(pollTimer);
+      await claimDone;
       const unfinished = [...inFlight.keys()];
       let timer: NodeJS.Timeout | undefined;
       await Promise.race([Promise.allSettled([...inFlight.values()]), new Promise((resolve) => (timer = setTimeout(resolve, graceMs)))]);
