@@ -94,7 +94,7 @@ describe('registering a sketch in a real browser', () => {
       });
       return ((await response.json()) as { error: { message: string } }).error.message;
     });
-    expect(await messageBeside(page, 'sketch-target-url')).toBe(server);
+    await expect.poll(() => messageBeside(page, 'sketch-target-url')).toBe(server);
   });
 
   it('when the target is tested, then the page shows what Brimwatch reads there, or exactly why it could not', async () => {
