@@ -49,10 +49,8 @@ export async function fetchTeams(): Promise<TeamSummary[]> {
   return answer.teams;
 }
 
-/** The sketch's entries in the audit log, newest first (the log is for admins). */
+/** The sketch's own entries in the audit log, newest first (open to every role that reads the sketch). */
 export async function fetchSketchAudit(id: number): Promise<AuditEntry[]> {
-  const answer = await get<{ entries: AuditEntry[] }>('/api/v1/audit', {
-    query: { subjectType: 'sketch', subjectId: String(id), pageSize: 50 },
-  });
+  const answer = await get<{ entries: AuditEntry[] }>(`/api/v1/sketches/${id}/audit`, { query: { pageSize: 50 } });
   return answer.entries;
 }

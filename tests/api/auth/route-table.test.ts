@@ -53,6 +53,7 @@ const TABLE: Row[] = [
   { method: 'POST', route: '/api/v1/dumps', path: () => '/api/v1/dumps', body: {}, expected: everyone(400, { viewer: 403 }) },
   { method: 'GET', route: '/api/v1/history', path: () => '/api/v1/history', expected: everyone(200) },
   { method: 'GET', route: '/api/v1/history.csv', path: () => '/api/v1/history.csv', expected: everyone(200) },
+  { method: 'GET', route: '/api/v1/sketches/:id/audit', path: () => '/api/v1/sketches/999999/audit', expected: everyone(404) },
   { method: 'GET', route: '/api/v1/imports/sketches/columns', path: () => '/api/v1/imports/sketches/columns', expected: everyone(200) },
   { method: 'GET', route: '/api/v1/imports/sketches/template', path: () => '/api/v1/imports/sketches/template', expected: everyone(200) },
   { method: 'POST', route: '/api/v1/imports/sketches/preview', path: () => '/api/v1/imports/sketches/preview', body: {}, expected: everyone(400, { viewer: 403, responder: 403 }) },
