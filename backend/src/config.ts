@@ -59,6 +59,7 @@ const schema = z.object({
   TARGET_ALLOWLIST: z.string().default('127.0.0.0/8,::1/128,localhost'),
   SCRAPE_MAX_BYTES: positiveInt('SCRAPE_MAX_BYTES', 1024 * 1024),
   UPLOAD_MAX_BYTES: positiveInt('UPLOAD_MAX_BYTES', 64 * 1024 * 1024),
+  UPLOAD_IDLE_SECONDS: positiveInt('UPLOAD_IDLE_SECONDS', 30),
   RAW_RETENTION_DAYS: positiveInt('RAW_RETENTION_DAYS', 14),
   // How old the fleet table's snapshot may be before the web server reads it again (0: read on every request).
   FLEET_SNAPSHOT_MS: z.coerce.number({ error: 'FLEET_SNAPSHOT_MS must be a whole number of milliseconds, 0 or more' }).int('FLEET_SNAPSHOT_MS must be a whole number of milliseconds, 0 or more').min(0, 'FLEET_SNAPSHOT_MS must be a whole number of milliseconds, 0 or more').default(2000),

@@ -34,6 +34,7 @@ export function dumpRoutes(db: Db, config: Config): Router {
   const upload = streamedUpload<DumpUpload>({
     field: 'file',
     maxBytes: config.UPLOAD_MAX_BYTES,
+    idleMs: config.UPLOAD_IDLE_SECONDS * 1000,
     async open(req) {
       const resolved = await resolveDumpFields(db, req.body);
       const reader = createDumpReader(resolved.settings);

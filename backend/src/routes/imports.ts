@@ -30,6 +30,7 @@ export function importRoutes(db: Db, config: Config): Router {
   const upload = streamedUpload<Uint8Array>({
     field: 'file',
     maxBytes: Math.min(config.UPLOAD_MAX_BYTES, INVENTORY_MAX_BYTES),
+    idleMs: config.UPLOAD_IDLE_SECONDS * 1000,
     async open() {
       const chunks: Uint8Array[] = [];
       return { write: (chunk) => void chunks.push(chunk), finish: () => Buffer.concat(chunks) };
