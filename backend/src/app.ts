@@ -7,6 +7,7 @@ import type { Config } from './config';
 import type { Db } from './db';
 import { errorHandler, notFoundRoute } from './http/errors';
 import { healthRoutes } from './routes/health';
+import { sizingRoutes } from './routes/sizing';
 import { refuseCrossSite } from './auth/csrf';
 import { identifyCaller } from './auth/identify';
 import { createSessions } from './auth/session';
@@ -71,7 +72,7 @@ export function createApp({ config, db, log = console.error }: AppDeps): express
   const api = express.Router();
   // Who is calling, before any route: every route then declares who may (auth/permission.ts).
   api.use(refuseCrossSite(config.publicUrl), sessions.middleware, identifyCaller(db, config.SESSION_ABSOLUTE_HOURS * 3600_000));
-  api.use(healthRoutes(db, version));
+  api.use(healthRoutes(db, version), sizingRoutes());
   api.use(authRoutes(config, db, signInClient(config)), userRoutes(db), teamRoutes(db), tokenRoutes(config, db), auditRoutes(db));
   const fleet = fleetSnapshot(() => fleetRows(db), config.FLEET_SNAPSHOT_MS, log);
   api.use(sketchRoutes(db, config, fleet));
