@@ -1,6 +1,7 @@
 // The form's rules are the server's own: the same zod schemas the API checks
 // a registration with (backend/src/routes/sketch-input.ts), so a value the
 // server would refuse is refused here first, with the server's own words.
+import '../../../utils/zod-without-eval';
 import type { z } from 'zod';
 import { instanceList, serviceName, sketchName, targetUrl, tunables } from '../../../../../backend/src/routes/sketch-input';
 import { figureOf } from './sketch-form-fields';
