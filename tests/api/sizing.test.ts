@@ -36,7 +36,7 @@ describe('GET /api/v1/sizing/plan and /assess', () => {
       { sizedTotal: 1e9, errorBudget: 10_000, confidence: 0.95, counterBytes: 2 },
     ];
     for (const d of designs) {
-      const query = new URLSearchParams(Object.entries(d).map(([k, v]) => [k, String(v)]));
+      const query = new URLSearchParams(Object.entries(d).map(([k, v]): [string, string] => [k, String(v)]));
       const res = await get(`/api/v1/sizing/plan?${query}`);
       expect(res.status).toBe(200);
       const theirs = createCountMinSketch(d.errorBudget / d.sizedTotal, 1 - d.confidence); // npm count-min-sketch: (ε, δ)
