@@ -3,6 +3,7 @@ import { claimDueTargets, releaseLeases, type ClaimedTarget } from './claim';
 import type { CollectorMetrics } from './metrics';
 import type { FinishedScrape } from './reading-rows';
 import { scrapeTarget, scrapeTimeoutMs, type ScrapeSettings } from './scrape';
+import { HistoryCache } from './history-cache';
 import { storeBatch, type StoreSettings } from './store';
 
 export interface LoopSettings {
@@ -31,7 +32,9 @@ const STORES_AT_ONCE = 3;
  * of anything lost that way expire and the targets come due again.
  */
 export function createCollectorLoop(db: Knex, settings: LoopSettings) {
-  const { metrics, store } = settings;
+  const { metrics } = settings;
+  // One history cache per process: a target stored here last time needs no history read next time.
+  const store: StoreSettings = { ...settings.store, historyCache: settings.store.historyCache ?? new HistoryCache(settings.store.historyReadings) };
   const inFlight = new Map<number, Promise<void>>();
   let finished: FinishedScrape[] = [];
   let claiming = false;
@@ -60,7 +63,7 @@ export function createCollectorLoop(db: Knex, settings: LoopSettings) {
     const task = scrapeOne(target).finally(() => {
       inFlight.delete(target.targetId);
       metrics.inFlight.set(inFlight.size);
-      if (!stopping && inFlight.size <= settings.concurrency / 2) void claim();
+      if (!stopping && inFlight.size < settings.concurrency) void claim();
     });
     inFlight.set(target.targetId, task);
     metrics.inFlight.set(inFlight.size);
@@ -122,7 +125,11 @@ export function createCollectorLoop(db: Knex, settings: LoopSettings) {
       finished = finished.slice(batch.length);
       const task: Promise<void> = storeOne(batch).finally(() => {
         storing.delete(task);
-        if (!closed) flush();
+        if (closed) return;
+        // A full batch goes at once; a partial one waits out the flush delay to fill, so under load the
+        // stores stay few and large rather than many small ones paying the same round trips.
+        if (finished.length >= settings.batchSize) flush();
+        else if (finished.length > 0 && !flushTimer) flushTimer = setTimeout(flush, settings.flushAfterMs);
       });
       storing.add(task);
     }

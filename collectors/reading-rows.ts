@@ -18,6 +18,8 @@ export interface PreviousStatus {
   streamTotal: number | null;
   width: number | null;
   depth: number | null;
+  /** When its last good reading was taken; lets a store tell whether its cached history still ends there. */
+  lastOkAt?: Date | null;
 }
 
 export interface ReadingRows {

@@ -1,6 +1,7 @@
 import type { Knex } from 'knex';
-import type { HealthLevel } from '../backend/src/maths';
+import type { HealthLevel, TotalReading } from '../backend/src/maths';
 import { completeLeases } from './claim';
+import type { HistoryCache } from './history-cache';
 import { loadHistory } from './reading-history';
 import { readingRows, type FinishedScrape, type PreviousStatus, type ReadingRows } from './reading-rows';
 import { nextScrapeAt } from './schedule';
@@ -12,6 +13,8 @@ export interface StoreSettings {
   historyReadings: number;
   alertsHook: AlertsHook;
   log: (message: string) => void;
+  /** This process's recent history per target; without it every batch reads its history from the database. */
+  historyCache?: HistoryCache;
 }
 
 export interface StoredBatch {
@@ -24,11 +27,11 @@ export interface StoredBatch {
 async function previousStatuses(db: Knex, targetIds: number[]): Promise<Map<number, PreviousStatus>> {
   const rows = await db('target_status')
     .whereIn('target_id', targetIds)
-    .select('target_id', 'level', 'level_since', 'failures_in_row', 'stream_total', 'width', 'depth');
+    .select('target_id', 'level', 'level_since', 'failures_in_row', 'stream_total', 'width', 'depth', 'last_ok_at');
   return new Map(
     rows.map((r) => [
       Number(r.target_id),
-      { level: r.level, levelSince: r.level_since, failuresInRow: r.failures_in_row, streamTotal: r.stream_total, width: r.width, depth: r.depth },
+      { level: r.level, levelSince: r.level_since, failuresInRow: r.failures_in_row, streamTotal: r.stream_total, width: r.width, depth: r.depth, lastOkAt: r.last_ok_at },
     ]),
   );
 }
@@ -58,19 +61,11 @@ const STATUS_ON_FAILURE = ['level', 'taken_at', 'last_error', 'failures_in_row',
 export async function storeBatch(db: Knex, batch: FinishedScrape[], settings: StoreSettings): Promise<StoredBatch> {
   if (batch.length === 0) return { stored: 0, leaseConflicts: 0, levels: [] };
   const ids = batch.map((d) => d.target.targetId);
-  const good = batch.filter((d) => d.outcome.ok);
-  // Two independent reads: asked at once, the batch waits for one round trip instead of two.
-  const [previous, history] = await Promise.all([
-    previousStatuses(db, ids),
-    loadHistory(
-      db,
-      good.map((d) => ({ targetId: d.target.targetId, windowed: d.outcome.ok && d.outcome.sample.windowSeconds > 0 })),
-      settings.historyReadings,
-    ),
-  ]);
+  const previous = await previousStatuses(db, ids);
+  const history = await historyOf(db, batch, previous, settings);
   const rows = batch.map((done) => ({ done, rows: rowsFor(done, previous.get(done.target.targetId), history, settings.log) }));
 
-  return db.transaction(async (trx) => {
+  const stored = await db.transaction(async (trx) => {
     // The next slot is the first after the scrape began, so a late scrape still leaves the following
     // round its own scrape; and at least half an interval after the slot just served, so a new
     // target's first two scrapes are not back to back.
@@ -91,4 +86,32 @@ export async function storeBatch(db: Knex, batch: FinishedScrape[], settings: St
     }
     return { stored: kept.length, leaseConflicts: batch.length - kept.length, levels: kept.map((r) => r.rows.level) };
   });
+  if (settings.historyCache) {
+    for (const { done, rows: r } of rows) {
+      if (!r.good || !done.outcome.ok || done.outcome.sample.windowSeconds > 0) continue;
+      const id = done.target.targetId;
+      settings.historyCache.remember(id, history.get(id) ?? [], { t: done.takenAt.getTime(), total: done.outcome.sample.streamTotal }, r.reading.is_resize === true);
+    }
+  }
+  return stored;
+}
+
+/**
+ * The forecast history of each good scrape: from this process's cache where it
+ * still holds, else from the database. Windowed sketches always read theirs,
+ * since their trend lies in the hourly rollups.
+ */
+async function historyOf(db: Knex, batch: FinishedScrape[], previous: Map<number, PreviousStatus>, settings: StoreSettings): Promise<Map<number, TotalReading[]>> {
+  const recalled = new Map<number, TotalReading[]>();
+  const wanted: { targetId: number; windowed: boolean }[] = [];
+  for (const d of batch) {
+    if (!d.outcome.ok) continue;
+    const windowed = d.outcome.sample.windowSeconds > 0;
+    const hit = windowed ? undefined : settings.historyCache?.recall(d.target.targetId, previous.get(d.target.targetId)?.lastOkAt);
+    if (hit) recalled.set(d.target.targetId, hit);
+    else wanted.push({ targetId: d.target.targetId, windowed });
+  }
+  const loaded = await loadHistory(db, wanted, settings.historyReadings);
+  for (const [id, points] of recalled) loaded.set(id, points);
+  return loaded;
 }
