@@ -69,14 +69,14 @@ export async function loadCollectionFleet(db: Db, port: number, targets: number)
   return { targetIds };
 }
 
-/** Makes the first `count` targets due now, as if their slots had come, with no leases held. */
+/** Makes the first `count` targets due (an hour overdue, so no clock can mistake them for done), with no leases held. */
 export async function makeDue(db: Db, targetIds: number[], count: number): Promise<void> {
   await db('targets').update({ lease_owner: null, lease_expires_at: null, next_scrape_at: db.raw("now() + interval '1 day'") });
-  await db('targets').whereIn('id', targetIds.slice(0, count)).update({ next_scrape_at: db.raw("now() - interval '1 millisecond'") });
+  await db('targets').whereIn('id', targetIds.slice(0, count)).update({ next_scrape_at: db.raw("now() - interval '1 hour'") });
 }
 
-/** Targets stored since `since`: their next slot has moved past it (targets not made due sit a day ahead). */
-export async function doneSince(db: Db, since: Date): Promise<number> {
-  const [{ n }] = await db('targets').where('next_scrape_at', '>', since).andWhere('next_scrape_at', '<', db.raw("now() + interval '12 hours'")).count('* as n');
+/** Targets stored since they were made due: their next slot moved from an hour ago to the coming minutes (those not due sit a day ahead). */
+export async function doneCount(db: Db): Promise<number> {
+  const [{ n }] = await db('targets').where('next_scrape_at', '>', db.raw("now() - interval '30 minutes'")).andWhere('next_scrape_at', '<', db.raw("now() + interval '12 hours'")).count('* as n');
   return Number(n);
 }

@@ -2,7 +2,7 @@ import { spawn } from 'node:child_process';
 import fs from 'node:fs';
 import path from 'node:path';
 import { createDb } from '../../backend/src/db';
-import { doneSince, makeDue } from './collection-fleet';
+import { doneCount, makeDue } from './collection-fleet';
 import type { BenchRow } from './report';
 
 const MiB = 2 ** 20;
@@ -39,10 +39,9 @@ export async function memoryRow(root: string, url: string, targetIds: number[], 
     }
     await new Promise((r) => setTimeout(r, 2000));
     const idle = statusBytes(child.pid!, 'VmRSS');
-    const since = new Date(Date.now() - 1);
-    await makeDue(db, targetIds, count);
+      await makeDue(db, targetIds, count);
     const started = performance.now();
-    while ((await doneSince(db, since)) < count) {
+    while ((await doneCount(db)) < count) {
       if (child.exitCode !== null) throw new Error(`the collectors process exited:\n${output.join('')}`);
       if (performance.now() - started > 180_000) throw new Error(`the collectors process stored fewer than ${count} targets in 180 s`);
       await new Promise((r) => setTimeout(r, 250));
