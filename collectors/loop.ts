@@ -22,7 +22,7 @@ export interface LoopSettings {
 }
 
 /** Batches stored at once by one process; each holds one database connection while it runs. */
-const STORES_AT_ONCE = 3;
+export const STORES_AT_ONCE = 3;
 
 /**
  * The collector's work loop: poll for due targets and claim them while there is room, scrape

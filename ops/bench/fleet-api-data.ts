@@ -77,7 +77,8 @@ export async function loadFleetForApi(db: Db): Promise<{ chartedSketchId: number
   for (const { indexname } of indexes) await db.raw(`drop index ${indexname}`);
   await insertSeries(`t.id = ${chartedTarget}`, 30);
   await insertSeries(`t.id in (select id from targets where id <> ${chartedTarget} order by id limit ${NEIGHBOUR_TARGETS})`, 300);
-  for (const { indexdef } of indexes) await db.raw(indexdef);
+  // pg_indexes names a partitioned table's index ON ONLY the parent; built ON the parent it covers every partition.
+  for (const { indexdef } of indexes) await db.raw(String(indexdef).replace(' ON ONLY ', ' ON '));
   await db.raw('vacuum analyze');
   const [{ n }] = await db('readings').count('* as n');
   return { chartedSketchId: charted, readings: Number(n) };

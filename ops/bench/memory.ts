@@ -15,7 +15,8 @@ function statusBytes(pid: number, field: 'VmHWM' | 'VmRSS'): number {
 
 /**
  * The collectors process as `npm start` runs it (node --import tsx
- * collectors/main.ts), over `count` due targets until every one is stored:
+ * collectors/main.ts), over two rounds of `count` due targets, each until
+ * every one is stored:
  * its peak resident memory (VmHWM) against its resident memory once started
  * and idle, before any target was due.
  */
@@ -39,12 +40,16 @@ export async function memoryRow(root: string, url: string, targetIds: number[], 
     }
     await new Promise((r) => setTimeout(r, 2000));
     const idle = statusBytes(child.pid!, 'VmRSS');
+    // Two rounds: the second runs with the history cache full, as a collector does from then on.
+    let started = 0;
+    for (let round = 0; round < 2; round++) {
       await makeDue(db, targetIds, count);
-    const started = performance.now();
-    while ((await doneCount(db)) < count) {
-      if (child.exitCode !== null) throw new Error(`the collectors process exited:\n${output.join('')}`);
-      if (performance.now() - started > 180_000) throw new Error(`the collectors process stored fewer than ${count} targets in 180 s`);
-      await new Promise((r) => setTimeout(r, 250));
+      started = performance.now();
+      while ((await doneCount(db)) < count) {
+        if (child.exitCode !== null) throw new Error(`the collectors process exited:\n${output.join('')}`);
+        if (performance.now() - started > 180_000) throw new Error(`the collectors process stored fewer than ${count} targets in 180 s`);
+        await new Promise((r) => setTimeout(r, 250));
+      }
     }
     const seconds = (performance.now() - started) / 1000;
     const peak = statusBytes(child.pid!, 'VmHWM');
@@ -57,7 +62,7 @@ export async function memoryRow(root: string, url: string, targetIds: number[], 
       ratio: peak / idle,
       goal: '< 300 MiB',
       met: peak / MiB < 300,
-      note: `the child stored all ${count} in ${seconds.toFixed(1)} s (${Math.round(count / seconds)} targets/s)`,
+      note: `in its second round the child stored all ${count} in ${seconds.toFixed(1)} s (${Math.round(count / seconds)} targets/s)`,
     };
   } finally {
     child.kill('SIGTERM');

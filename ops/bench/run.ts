@@ -4,10 +4,10 @@ import { fileURLToPath } from 'node:url';
 import { openBenchCluster } from './bench-db';
 import { loadCollectionFleet } from './collection-fleet';
 import { collectionRows } from './collection';
-import { storageRow } from './storage';
+import { storageRows } from './storage';
 import { loadFleetForApi } from './fleet-api-data';
 import { fleetApiRows } from './fleet-api';
-import { dumpAnalysisRow } from './dump-analysis';
+import { dumpAnalysisRows } from './dump-analysis';
 import { memoryRow } from './memory';
 import { startSimulatedFleet } from './fleet-process';
 import { machineLine, textTable, writeReport, type BenchRow } from './report';
@@ -34,7 +34,7 @@ try {
   step('collection');
   rows.push(...(await collectionRows(collect.url, fleet.url, targetIds, [1000, 5000])));
   step('storage');
-  rows.push(await storageRow(collect.db, collect.url, dataDir, targetIds, 2));
+  rows.push(...(await storageRows(collect.db, collect.url, dataDir, targetIds, 2)));
   step('memory');
   rows.push(await memoryRow(root, collect.url, targetIds, 5000));
   await collect.db.destroy();
@@ -47,7 +47,7 @@ try {
   await api.db.destroy();
 
   step('dump analysis');
-  rows.push(await dumpAnalysisRow(dataDir));
+  rows.push(...(await dumpAnalysisRows(dataDir)));
 } finally {
   await fleet.stop();
   await pg.close();
