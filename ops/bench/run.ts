@@ -56,6 +56,11 @@ try {
 const seconds = (performance.now() - startedAt) / 1000;
 console.log(`\n${textTable(rows)}\n`);
 for (const row of rows) if (row.note) notes.push(`${row.figure}: ${row.note}`);
+notes.push(
+  'The simulated fleet (ops/bench/target-server.ts) runs as a process of its own; the bare loop and the pipeline share this process and its concurrency (COLLECTOR_CONCURRENCY).',
+  "COPY is psql's \\copy … from a CSV file, which psql sends as COPY … FROM STDIN; PostgreSQL 15 (Debian) with its default settings, fsync on, in .data/bench-pg.",
+  'Figures move with whatever else runs on the machine; the load average above says how busy it was.',
+);
 writeReport(path.join(root, 'ops/bench/last-run.md'), rows, notes, seconds);
 console.log(`[bench] written to ops/bench/last-run.md; whole run ${seconds.toFixed(0)} s`);
 process.exit(rows.every((r) => r.met) ? 0 : 1);
