@@ -14,6 +14,8 @@ const BINS = 66; // 0, then one per power of two up to 2^64
 
 function binOf(value: number): number {
   if (value === 0) return 0;
+  // Below 2^32 the bin is the bit length, exactly and without a logarithm (this runs once per counter).
+  if (value < 4_294_967_296) return 32 - Math.clz32(value);
   // Math.log2 may round across a power of two for large values; correct by one step either way.
   let bin = Math.floor(Math.log2(value)) + 1;
   if (2 ** (bin - 1) > value) bin -= 1;

@@ -4,6 +4,9 @@ import { badDump } from './dump-error';
 import type { CounterHistogram } from './histogram';
 import { RAW_WORD_BYTES, type RawFormat } from './shape';
 
+/** The byte order of this machine's typed arrays. */
+const LITTLE_ENDIAN = new Uint8Array(new Uint32Array([1]).buffer)[0] === 1;
+
 /**
  * Raw little-endian counters, row after row, with the width and depth from
  * the form. Each chunk goes straight into the maths module's accumulator, so
@@ -64,6 +67,7 @@ export class RawReader {
   }
 
   private push(bytes: Uint8Array, start: number, words: number): void {
+    if (LITTLE_ENDIAN) return this.pushNative(bytes, start, words);
     const view = new DataView(bytes.buffer, bytes.byteOffset + start, words * this.wordBytes);
     if (this.format === 'u32le') {
       const chunk = new Uint32Array(words);
@@ -76,5 +80,22 @@ export class RawReader {
       this.histogram.add(chunk);
       this.accumulator.push(chunk);
     }
+  }
+
+  /**
+   * On a little-endian machine the bytes already are the counters: read them
+   * in place when they start on a word boundary, else from one aligned copy,
+   * rather than word by word.
+   */
+  private pushNative(bytes: Uint8Array, start: number, words: number): void {
+    const offset = bytes.byteOffset + start;
+    const length = words * this.wordBytes;
+    const aligned = offset % this.wordBytes === 0;
+    // A copy through the Uint8Array constructor: a Buffer's slice() would share the unaligned memory.
+    const buffer = aligned ? bytes.buffer : new Uint8Array(bytes.subarray(start, start + length)).buffer;
+    const at = aligned ? offset : 0;
+    const chunk = this.format === 'u32le' ? new Uint32Array(buffer, at, words) : new BigUint64Array(buffer, at, words);
+    this.histogram.add(chunk);
+    this.accumulator.push(chunk);
   }
 }
