@@ -12,7 +12,7 @@ import { STORES_AT_ONCE } from '../../collectors/loop';
 import { storeBatch } from '../../collectors/store';
 import { BENCH_PG } from './bench-db';
 import { makeDue } from './collection-fleet';
-import type { BenchRow } from './report';
+import { median, type BenchRow } from './report';
 import { targetPage } from './sim-fleet';
 
 const COLUMNS = ['target_id', 'sketch_id', 'taken_at', 'ok', 'failure_reason', 'stream_total', 'width', 'depth', 'counter_bytes', 'window_seconds', 'conservative', 'nonzero_cells', 'scrape_ms', 'is_reset', 'is_resize', 'judgement'];
@@ -84,20 +84,26 @@ export async function storageRows(db: Db, url: string, dataDir: string, targetId
   }
   if (stored !== readings.length) throw new Error(`the batch writer stored ${stored} of ${readings.length} readings`);
 
-  let insertMs = 0;
-  for (let i = 0; i < readings.length; i += batchSize) {
+  // The same rows again, three times each way; the median run counts, as one slow moment should not.
+  const insertRuns: number[] = [];
+  for (let run = 0; run < 3; run++) {
     const started = performance.now();
-    await db.transaction((trx) => trx('readings').insert(readings.slice(i, i + batchSize)));
-    insertMs += performance.now() - started;
+    for (let i = 0; i < readings.length; i += batchSize) await db.transaction((trx) => trx('readings').insert(readings.slice(i, i + batchSize)));
+    insertRuns.push(performance.now() - started);
   }
+  const insertMs = median(insertRuns);
 
   const file = path.join(dataDir, 'readings.csv');
   fs.writeFileSync(file, `${readings.map((r) => COLUMNS.map((c) => csvCell(r[c])).join(',')).join('\n')}\n`);
   const database = new URL(url).pathname.slice(1);
-  const started = performance.now();
-  const copy = spawnSync(psqlPath(), ['-X', '-q', '-v', 'ON_ERROR_STOP=1', '-h', BENCH_PG.host, '-p', String(BENCH_PG.port), '-U', BENCH_PG.user, '-d', database, '-c', `\\copy readings (${COLUMNS.join(', ')}) from '${file}' with (format csv)`], { encoding: 'utf8' });
-  const copyMs = performance.now() - started;
-  if (copy.status !== 0) throw new Error(`COPY through psql failed: ${copy.stderr}`);
+  const copyRuns: number[] = [];
+  for (let run = 0; run < 3; run++) {
+    const started = performance.now();
+    const copy = spawnSync(psqlPath(), ['-X', '-q', '-v', 'ON_ERROR_STOP=1', '-h', BENCH_PG.host, '-p', String(BENCH_PG.port), '-U', BENCH_PG.user, '-d', database, '-c', `\\copy readings (${COLUMNS.join(', ')}) from '${file}' with (format csv)`], { encoding: 'utf8' });
+    copyRuns.push(performance.now() - started);
+    if (copy.status !== 0) throw new Error(`COPY through psql failed: ${copy.stderr}`);
+  }
+  const copyMs = median(copyRuns);
 
   const baseline = readings.length / (copyMs / 1000);
   const row = (figure: string, rate: number, goal: string, met: boolean): BenchRow => ({
