@@ -1,5 +1,6 @@
 import type { Db } from '../../backend/src/db';
 import { seed as seedTeams } from '../../seeds/01_teams_and_services';
+import { rollUpHours } from '../../collectors/maintenance/rollups';
 
 export const FLEET_SKETCHES = 10_000;
 export const HISTORY_DAYS = 90;
@@ -31,7 +32,7 @@ const judgementSql = (total: string, capacity: string) => `jsonb_build_object(
  * partitions. The secondary indexes are built after the rows are in (as a
  * bulk load would), from their definitions in the migrations. Returns the charted sketch's id.
  */
-export async function loadFleetForApi(db: Db): Promise<{ chartedSketchId: number; readings: number }> {
+export async function loadFleetForApi(db: Db): Promise<{ chartedSketchId: number; readings: number; rollupHours: number }> {
   await seedTeams(db);
   await db.raw(
     `insert into sketches (service_id, team_id, name, error_budget, confidence, scrape_interval_seconds)
@@ -79,7 +80,10 @@ export async function loadFleetForApi(db: Db): Promise<{ chartedSketchId: number
   await insertSeries(`t.id in (select id from targets where id <> ${chartedTarget} order by id limit ${NEIGHBOUR_TARGETS})`, 300);
   // pg_indexes names a partitioned table's index ON ONLY the parent; built ON the parent it covers every partition.
   for (const { indexdef } of indexes) await db.raw(String(indexdef).replace(' ON ONLY ', ' ON '));
+  // The collectors' maintenance keeps the hourly rollups within a minute of the readings; here they are made once.
+  await rollUpHours(db);
   await db.raw('vacuum analyze');
   const [{ n }] = await db('readings').count('* as n');
-  return { chartedSketchId: charted, readings: Number(n) };
+  const [{ h }] = await db('reading_rollups_hourly').count('* as h');
+  return { chartedSketchId: charted, readings: Number(n), rollupHours: Number(h) };
 }

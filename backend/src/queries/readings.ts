@@ -50,11 +50,15 @@ export interface BudgetOfSketch {
  * come from it, then the last good total and the last level from one lookup
  * each. Load is n / (m·E·δ^(1/k)) (DESIGN.md) against the sketch's current
  * budget, worked out from the indexed columns rather than each stored judgement.
+ * Only readings taken from `since` on count (where the hourly rollups hand
+ * over); the bounds are repeated as plain conditions so PostgreSQL leaves the
+ * day partitions outside them out of the plan.
  */
-export async function bucketedReadings(db: Db, q: RangeQuery, budget: BudgetOfSketch, edges: string[], first: number): Promise<BucketRow[]> {
+export async function bucketedReadings(db: Db, q: RangeQuery, budget: BudgetOfSketch, edges: string[], first: number, since: Date = q.from): Promise<BucketRow[]> {
   if (first >= q.points) return [];
-  const target = q.targetId === undefined ? '' : 'and r.target_id = ?';
-  const t = q.targetId === undefined ? [] : [q.targetId];
+  const bounds = 'and r.taken_at >= ?::timestamptz and r.taken_at < ?::timestamptz';
+  const target = `${bounds} ${q.targetId === undefined ? '' : 'and r.target_id = ?'}`;
+  const t = [since, edges[q.points], ...(q.targetId === undefined ? [] : [q.targetId])];
   const sql = `
     select b.n - 1 + ? as bucket, agg.*, good.stream_total as total_last, latest.level as level_last
     from unnest(?::timestamptz[], ?::timestamptz[]) with ordinality as b(lo, hi, n)

@@ -52,6 +52,94 @@ describe('a sketch history whose old readings have aged out', () => {
       expect(point.totalMin, `day ${day}`).toBe(Math.min(...inDay));
       expect(point.totalLast, `day ${day}`).toBe(inDay[inDay.length - 1]);
     }
-    expect(res.body.markers).toEqual([{ t: new Date(START + 3 * DAY).toISOString(), kind: 'reset', instance: 'a', width: null, depth: null }]);
+    // A rolled-up reset is marked at its hour, with the sizing that hour ended on.
+    expect(res.body.markers).toEqual([{ t: new Date(START + 3 * DAY).toISOString(), kind: 'reset', instance: 'a', width: 272, depth: 5 }]);
+  });
+
+  it('when buckets are shorter than an hour and reach back past the raw readings, then the aged-out part shows one bucket per rolled-up hour and the rest every reading', async () => {
+    const from = START + 4 * DAY - 12 * HOUR;
+    const res = await as(w.app, viewer).get(`/api/v1/sketches/${sketchId}/readings?from=${new Date(from).toISOString()}&to=${new Date(from + DAY).toISOString()}&points=48`);
+    expect(res.status).toBe(200);
+    const rolled = res.body.points.filter((p: { t: string }) => Date.parse(p.t) < START + 4 * DAY);
+    const raw = res.body.points.filter((p: { t: string }) => Date.parse(p.t) >= START + 4 * DAY);
+    // Half-hour buckets: an hour's rollup lands in the bucket its start falls in, so 12 of the 24 aged-out buckets hold an hour (12 readings) each.
+    expect(rolled.map((p: { t: string }) => Date.parse(p.t))).toEqual(Array.from({ length: 12 }, (_, i) => from + i * HOUR));
+    expect(rolled.every((p: { readings: number }) => p.readings === 12)).toBe(true);
+    // The last bucket ends at `to`, which includes the reading taken at that instant.
+    expect(raw.map((p: { readings: number }) => p.readings)).toEqual([...Array.from({ length: 23 }, () => 6), 7]);
+  });
+});
+
+describe('a long-range chart drawn from the hourly rollups and the latest raw readings', () => {
+  let w: SketchWorld;
+  let viewer: string;
+  let sketchId: number;
+  const FROM = Date.parse('2026-11-10T00:00:00Z');
+  const HOURS = 30;
+  const RESIZED_AT = FROM + 10 * HOUR;
+  const RESET_AT = FROM + 29 * HOUR + 30 * 60_000;
+  // Every 5 minutes for 30 hours: a rising total, resized from 272 to 544 wide at hour 10, restarted at 29:30, one failed scrape at 05:00.
+  const readings = Array.from({ length: (HOURS * HOUR) / STEP }, (_, i) => {
+    const t = FROM + i * STEP;
+    const ok = t !== FROM + 5 * HOUR;
+    return { t, ok, total: ok ? (t < RESET_AT ? 100 * i : 7 * i) : null, width: t < RESIZED_AT ? 272 : 544, isResize: t === RESIZED_AT, isReset: t === RESET_AT };
+  });
+  const rowOf = (targetId: number, r: (typeof readings)[number]) => ({
+    target_id: targetId,
+    sketch_id: sketchId,
+    taken_at: new Date(r.t),
+    ok: r.ok,
+    failure_reason: r.ok ? null : 'HTTP status 500',
+    stream_total: r.total,
+    width: r.ok ? r.width : null,
+    depth: r.ok ? 5 : null,
+    counter_bytes: r.ok ? 4 : null,
+    is_reset: r.isReset,
+    is_resize: r.isResize,
+    judgement: r.ok ? JSON.stringify(judgementOf({ width: r.width, depth: 5, streamTotal: r.total!, errorBudget: 100, confidence: 0.99 })) : null,
+  });
+
+  beforeAll(async () => {
+    w = await startSketchWorld();
+    viewer = await w.tokenFor('viewer');
+    const { id, targetIds } = await addSketch(w.db, { service: 'checkout', sketch: 'per-card-limiter', team: 'payments', instances: [{ instance: 'a' }] });
+    sketchId = id;
+    // The collectors roll up what they have read by 28:20; the readings after that are raw only.
+    const rolledBy = FROM + 28 * HOUR + 20 * 60_000;
+    await w.db('readings').insert(readings.filter((r) => r.t < rolledBy).map((r) => rowOf(targetIds[0], r)));
+    await rollUpHours(w.db);
+    await w.db('readings').insert(readings.filter((r) => r.t >= rolledBy).map((r) => rowOf(targetIds[0], r)));
+    // The owner has since halved the error budget: charts show load against the budget the sketch has now.
+    await w.db('sketches').where({ id }).update({ error_budget: 50 });
+  });
+  afterAll(() => w.close());
+
+  // Two-hour buckets hand over from rollups to raw readings at a bucket's edge (28:00); three-hour ones inside the bucket 27:00–30:00.
+  it.each([15, 10])('when each bucket spans hours (%i buckets), then every bucket matches the readings it covers, load is against the current budget, and resizes and resets are marked', async (points) => {
+    const res = await as(w.app, viewer).get(`/api/v1/sketches/${sketchId}/readings?from=${new Date(FROM).toISOString()}&to=${new Date(FROM + HOURS * HOUR).toISOString()}&points=${points}`);
+    expect(res.status).toBe(200);
+    const span = (HOURS / points) * HOUR;
+    expect(res.body.bucketSeconds).toBeCloseTo(span / 1000, 6);
+    expect(res.body.points).toHaveLength(points);
+    for (const [n, point] of res.body.points.entries()) {
+      const lo = FROM + n * span;
+      const inBucket = readings.filter((r) => r.t >= lo && r.t < lo + span);
+      const good = inBucket.filter((r) => r.ok);
+      expect(point.t).toBe(new Date(lo).toISOString());
+      expect(point.readings, `bucket ${n}`).toBe(inBucket.length);
+      expect(point.failures, `bucket ${n}`).toBe(inBucket.length - good.length);
+      expect(point.totalMin, `bucket ${n}`).toBe(Math.min(...good.map((r) => r.total!)));
+      expect(point.totalMax, `bucket ${n}`).toBe(Math.max(...good.map((r) => r.total!)));
+      expect(point.totalLast, `bucket ${n}`).toBe(good.at(-1)!.total);
+      // Load n / (m·E·δ^(1/k)): capacity m·E·δ^(1/k) from the count-min bound (Cormode & Muthukrishnan 2005), as DESIGN.md defines it, with E = 50 now.
+      const loads = good.map((r) => r.total! / (r.width * 50 * Math.pow(0.01, 1 / 5)));
+      expect(point.loadMax, `bucket ${n}`).toBeCloseTo(Math.max(...loads), 9);
+    }
+    expect(res.body.markers).toEqual([
+      // From the rollups: at the hour, with the sizing the hour ended on.
+      { t: new Date(RESIZED_AT).toISOString(), kind: 'resize', instance: 'a', width: 544, depth: 5 },
+      // From the raw readings, after the rollups' latest hour: at the reading.
+      { t: new Date(RESET_AT).toISOString(), kind: 'reset', instance: 'a', width: 544, depth: 5 },
+    ]);
   });
 });

@@ -1,7 +1,7 @@
 import type { Db } from '../../db';
 import { AppError } from '../../http/errors';
-import { bucketEdges, bucketedReadings, markersInRange } from '../../queries/readings';
-import { bucketedRollups, oldestRawReading, rollupMarkers } from '../../queries/rollups';
+import { bucketEdges, bucketedReadings, markersInRange, type BucketRow, type BudgetOfSketch, type MarkerRow, type RangeQuery } from '../../queries/readings';
+import { bucketedRollups, latestRolledHour, oldestRawReading, rollupMarkers } from '../../queries/rollups';
 import { requireSketch } from './detail';
 
 export interface HistoryQuery {
@@ -43,11 +43,19 @@ export interface SketchHistory {
   markers: HistoryMarker[];
 }
 
+const HOUR_MS = 3_600_000;
+
+interface Bucketed {
+  buckets: BucketRow[];
+  markers: MarkerRow[];
+}
+
 /**
  * A sketch's readings over a range, bucketed by time in the database: at most
  * `points` points however many readings lie in the range. Empty buckets are
- * left out, so gaps in collection show as gaps on the chart. Where the raw
- * readings have aged out, the hourly rollups fill in.
+ * left out, so gaps in collection show as gaps on the chart. Buckets of an
+ * hour or more come from the hourly rollups where they reach; shorter ones
+ * from the raw readings, with the rollups filling in where those have aged out.
  */
 export async function sketchHistory(db: Db, sketchId: number, q: HistoryQuery): Promise<SketchHistory> {
   const sketch = await requireSketch(db, sketchId);
@@ -62,20 +70,9 @@ export async function sketchHistory(db: Db, sketchId: number, q: HistoryQuery): 
   }
   const range = { sketchId, targetId, from: q.from, to: q.to, points: q.points };
   const edges = bucketEdges(range);
-  // Raw readings are dropped after RAW_RETENTION_DAYS; buckets wholly before the oldest one come from the hourly rollups.
-  const oldest = await oldestRawReading(db, sketchId, targetId);
-  const endAfterOldest = oldest === null ? -1 : edges.findIndex((edge, i) => i > 0 && new Date(edge) > oldest);
-  const firstRaw = endAfterOldest === -1 ? q.points : endAfterOldest - 1;
   const budget = { errorBudget: sketch.error_budget, confidence: sketch.confidence };
-  const [rolled, raw, rolledMarkers, rawMarkers] = await Promise.all([
-    bucketedRollups(db, range, edges, 0, firstRaw - 1),
-    bucketedReadings(db, range, budget, edges, firstRaw),
-    firstRaw > 0 ? rollupMarkers(db, range, new Date(edges[firstRaw])) : [],
-    markersInRange(db, range),
-  ]);
-  const buckets = [...rolled, ...raw];
-  const markers = [...rolledMarkers, ...rawMarkers];
   const bucketMs = (q.to.getTime() - q.from.getTime()) / q.points;
+  const { buckets, markers } = bucketMs >= HOUR_MS ? await hoursThenReadings(db, range, budget, edges) : await readingsAfterHours(db, range, budget, edges);
   return {
     sketchId,
     instance: q.instance ?? null,
@@ -97,4 +94,65 @@ export async function sketchHistory(db: Db, sketchId: number, q: HistoryQuery): 
       return [...(m.is_reset ? [{ ...base, kind: 'reset' as const }] : []), ...(m.is_resize ? [{ ...base, kind: 'resize' as const }] : [])];
     }),
   };
+}
+
+/**
+ * Buckets of an hour or more. Every hour before the latest one the rollups hold
+ * is rolled up in full, so those hours come from the rollups (about 2,000 rows
+ * for 90 days instead of hundreds of thousands of readings) and only the
+ * readings from that hour on are bucketed raw. The bucket the hand-over falls
+ * in takes from both.
+ */
+async function hoursThenReadings(db: Db, range: RangeQuery, budget: BudgetOfSketch, edges: string[]): Promise<Bucketed> {
+  const latest = await latestRolledHour(db, range.sketchId, range.targetId);
+  if (latest === null) return readingsAfterHours(db, range, budget, edges);
+  const handOver = new Date(Math.min(Math.max(latest.getTime(), range.from.getTime()), range.to.getTime() + 1));
+  const rolledBuckets = edges.slice(0, -1).filter((lo) => new Date(lo) < handOver).length;
+  const firstRaw = Math.max(0, rolledBuckets - 1);
+  const [rolled, raw, rolledMarkers, rawMarkers] = await Promise.all([
+    bucketedRollups(db, range, budget, edges, 0, rolledBuckets - 1, handOver),
+    bucketedReadings(db, range, budget, edges, firstRaw, handOver),
+    rollupMarkers(db, range, handOver),
+    markersInRange(db, { ...range, from: handOver }),
+  ]);
+  return { buckets: mergeBuckets(rolled, raw), markers: [...rolledMarkers, ...rawMarkers] };
+}
+
+/**
+ * Buckets shorter than an hour, from the raw readings; raw readings are dropped
+ * after RAW_RETENTION_DAYS, so buckets wholly before the oldest one come from
+ * the hourly rollups.
+ */
+async function readingsAfterHours(db: Db, range: RangeQuery, budget: BudgetOfSketch, edges: string[]): Promise<Bucketed> {
+  const oldest = await oldestRawReading(db, range.sketchId, range.targetId);
+  const endAfterOldest = oldest === null ? -1 : edges.findIndex((edge, i) => i > 0 && new Date(edge) > oldest);
+  const firstRaw = endAfterOldest === -1 ? range.points : endAfterOldest - 1;
+  const rawFrom = new Date(edges[firstRaw] ?? range.to);
+  const [rolled, raw, rolledMarkers, rawMarkers] = await Promise.all([
+    bucketedRollups(db, range, budget, edges, 0, firstRaw - 1, rawFrom),
+    bucketedReadings(db, range, budget, edges, firstRaw),
+    firstRaw > 0 ? rollupMarkers(db, range, rawFrom) : [],
+    markersInRange(db, range),
+  ]);
+  return { buckets: [...rolled, ...raw], markers: [...rolledMarkers, ...rawMarkers] };
+}
+
+/** Rollup buckets followed by raw ones; a bucket in both (where the rollups hand over) is the two combined. */
+function mergeBuckets(rolled: BucketRow[], raw: BucketRow[]): BucketRow[] {
+  const last = rolled.at(-1);
+  const first = raw[0];
+  if (!last || !first || Number(last.bucket) !== Number(first.bucket)) return [...rolled, ...raw];
+  const extreme = (pick: (...v: number[]) => number, a: number | null, b: number | null) => (a === null ? b : b === null ? a : pick(a, b));
+  const both: BucketRow = {
+    bucket: first.bucket,
+    total_min: extreme(Math.min, last.total_min, first.total_min),
+    total_max: extreme(Math.max, last.total_max, first.total_max),
+    total_last: first.total_last ?? last.total_last,
+    load_max: extreme(Math.max, last.load_max, first.load_max),
+    level_last: first.level_last,
+    readings: last.readings + first.readings,
+    failures: last.failures + first.failures,
+    last_at: first.last_at,
+  };
+  return [...rolled.slice(0, -1), both, ...raw.slice(1)];
 }
