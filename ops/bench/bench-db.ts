@@ -4,7 +4,13 @@ import path from 'node:path';
 import { openCluster, type Cluster } from '../postgres/cluster';
 import { createDb, type Db } from '../../backend/src/db';
 
-export const BENCH_PG = { host: '127.0.0.1', port: Number(process.env.BENCH_PGPORT ?? 54369), user: 'brimwatch' };
+const DEFAULT_BENCH_PORT = 54369;
+export const BENCH_PG = { host: '127.0.0.1', port: Number(process.env.BENCH_PGPORT ?? DEFAULT_BENCH_PORT), user: 'brimwatch' };
+/**
+ * Folders of this port's run under .data: a cluster on another BENCH_PGPORT gets a folder of its own,
+ * so two runs on one checkout neither share a data directory nor stop each other's server.
+ */
+export const BENCH_DIRS = BENCH_PG.port === DEFAULT_BENCH_PORT ? { cluster: 'bench-pg', files: 'bench' } : { cluster: `bench-pg-${BENCH_PG.port}`, files: `bench-${BENCH_PG.port}` };
 export const benchUrl = (name: string) => `postgres://${BENCH_PG.user}@${BENCH_PG.host}:${BENCH_PG.port}/${name}`;
 
 /** A template migrated from scratch, named by the migrations' hash so a changed schema is never reused. */
@@ -28,7 +34,7 @@ export interface BenchCluster {
  * with its default settings: fsync and synchronous commit on, as in production).
  */
 export async function openBenchCluster(root: string): Promise<BenchCluster> {
-  const cluster = openCluster({ dataDir: path.join(root, '.data'), name: 'bench-pg', ...BENCH_PG, extraSettings: ['max_connections=200'] });
+  const cluster = openCluster({ dataDir: path.join(root, '.data'), name: BENCH_DIRS.cluster, ...BENCH_PG, extraSettings: ['max_connections=200'] });
   const startedHere = !cluster.isRunning();
   cluster.start();
   cluster.createDatabase('bench_admin');

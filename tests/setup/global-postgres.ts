@@ -2,7 +2,7 @@ import path from 'node:path';
 import type { TestProject } from 'vitest/node';
 import { openCluster } from '../../ops/postgres/cluster';
 import { createDb } from '../../backend/src/db';
-import { TEST_PG, TEMPLATE_DB } from './test-pg';
+import { TEST_CLUSTER_NAME, TEST_PG, TEMPLATE_DB } from './test-pg';
 
 /**
  * Starts the tests' own PostgreSQL cluster (own folder, own port, separate from
@@ -13,7 +13,7 @@ import { TEST_PG, TEMPLATE_DB } from './test-pg';
 export default async function setup(project: TestProject) {
   const cluster = openCluster({
     dataDir: path.resolve('.data'),
-    name: 'test-pg',
+    name: TEST_CLUSTER_NAME,
     host: TEST_PG.host,
     port: TEST_PG.port,
     user: TEST_PG.user,

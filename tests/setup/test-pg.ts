@@ -2,12 +2,20 @@ import { createHash } from 'node:crypto';
 import fs from 'node:fs';
 import path from 'node:path';
 
+const DEFAULT_TEST_PORT = 54339;
+
 /** Where the tests' private PostgreSQL cluster listens (not npm start's cluster). */
 export const TEST_PG = {
   host: '127.0.0.1',
-  port: Number(process.env.TEST_PGPORT ?? 54339),
+  port: Number(process.env.TEST_PGPORT ?? DEFAULT_TEST_PORT),
   user: 'brimwatch',
 };
+
+/**
+ * The cluster's folder under .data: another TEST_PGPORT gets a folder of its own, so two test runs
+ * on one checkout neither share a data directory nor stop each other's server.
+ */
+export const TEST_CLUSTER_NAME = TEST_PG.port === DEFAULT_TEST_PORT ? 'test-pg' : `test-pg-${TEST_PG.port}`;
 
 /**
  * The migrated template's name carries a hash of the migrations, so a cluster
