@@ -38,7 +38,7 @@ const loop = createCollectorLoop(db, {
   store: { owner: id, historyReadings: config.COLLECTOR_HISTORY_READINGS, alertsHook, log },
   metrics,
 });
-const maintain = createMaintenance(db, { owner: id, rawRetentionDays: config.RAW_RETENTION_DAYS, leaseSeconds: 30, alertsHook, log });
+const maintain = createMaintenance(db, { owner: id, rawRetentionDays: config.RAW_RETENTION_DAYS, rollupRetentionDays: config.ROLLUP_RETENTION_DAYS, leaseSeconds: 30, alertsHook, log });
 
 const beat = async () => {
   try {

@@ -61,6 +61,8 @@ const schema = z.object({
   UPLOAD_MAX_BYTES: positiveInt('UPLOAD_MAX_BYTES', 64 * 1024 * 1024),
   UPLOAD_IDLE_SECONDS: positiveInt('UPLOAD_IDLE_SECONDS', 30),
   RAW_RETENTION_DAYS: positiveInt('RAW_RETENTION_DAYS', 14),
+  // Thirteen months, so a chart can compare a month with the same month a year before (common practice for capacity reviews).
+  ROLLUP_RETENTION_DAYS: positiveInt('ROLLUP_RETENTION_DAYS', 400),
   // How old the fleet table's snapshot may be before the web server reads it again (0: read on every request).
   FLEET_SNAPSHOT_MS: z.coerce.number({ error: 'FLEET_SNAPSHOT_MS must be a whole number of milliseconds, 0 or more' }).int('FLEET_SNAPSHOT_MS must be a whole number of milliseconds, 0 or more').min(0, 'FLEET_SNAPSHOT_MS must be a whole number of milliseconds, 0 or more').default(2000),
   DEMO: flag(true),
@@ -104,6 +106,11 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     throw new ConfigError(`Brimwatch cannot start, the configuration is wrong:\n${lines.join('\n')}`);
   }
   const c = parsed.data;
+  if (c.ROLLUP_RETENTION_DAYS < c.RAW_RETENTION_DAYS) {
+    throw new ConfigError(
+      `Brimwatch cannot start, the configuration is wrong:\n  ROLLUP_RETENTION_DAYS: must be at least RAW_RETENTION_DAYS (${c.RAW_RETENTION_DAYS}), since charts of ranges older than the raw readings come from the hourly rollups (got '${c.ROLLUP_RETENTION_DAYS}'). Fix: raise ROLLUP_RETENTION_DAYS, or lower RAW_RETENTION_DAYS.`,
+    );
+  }
   const urlHost = c.HOST.includes(':') ? `[${c.HOST}]` : c.HOST;
   return {
     ...c,

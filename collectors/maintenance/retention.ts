@@ -58,3 +58,21 @@ export async function dropOldReadings(db: Knex, now: number, retentionDays: numb
   }
   return { droppedPartitions, deletedRows };
 }
+
+/**
+ * Deletes hourly rollups older than their own retention (ROLLUP_RETENTION_DAYS,
+ * always at least the raw retention), in chunks so no long lock holds up the
+ * minute's rollup.
+ */
+export async function dropOldRollups(db: Knex, now: number, retentionDays: number): Promise<number> {
+  const cutoff = new Date(now - retentionDays * DAY_MS).toISOString();
+  let deleted = 0;
+  for (;;) {
+    const result = await db.raw(
+      'delete from reading_rollups_hourly where ctid = any(array(select ctid from reading_rollups_hourly where hour < ? limit 5000))',
+      [cutoff],
+    );
+    deleted += result.rowCount ?? 0;
+    if ((result.rowCount ?? 0) < 5000) return deleted;
+  }
+}

@@ -2,12 +2,13 @@ import type { Knex } from 'knex';
 import { holdSchedulerLease } from '../scheduler-election';
 import type { AlertsHook } from '../sketch-level';
 import { rollUpHours } from './rollups';
-import { dropOldReadings, ensureDailyPartitions } from './retention';
+import { dropOldReadings, dropOldRollups, ensureDailyPartitions } from './retention';
 import { markStaleTargets } from './stale';
 
 export interface MaintenanceSettings {
   owner: string;
   rawRetentionDays: number;
+  rollupRetentionDays: number;
   /** How long the scheduler's lease lasts without renewal. */
   leaseSeconds: number;
   alertsHook: AlertsHook;
@@ -47,6 +48,8 @@ export function createMaintenance(db: Knex, settings: MaintenanceSettings, clock
         await ensureDailyPartitions(db, now, 3, settings.log);
         const { droppedPartitions, deletedRows } = await dropOldReadings(db, now, settings.rawRetentionDays);
         if (droppedPartitions.length > 0 || deletedRows > 0) settings.log(`retention: dropped ${droppedPartitions.join(', ') || 'no partitions'}, deleted ${deletedRows} old readings`);
+        const deletedHours = await dropOldRollups(db, now, settings.rollupRetentionDays);
+        if (deletedHours > 0) settings.log(`retention: deleted ${deletedHours} hourly rollups older than ${settings.rollupRetentionDays} days`);
         lastRetention = now;
       }
       return { scheduler: true };

@@ -1,10 +1,10 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { dropOldReadings, ensureDailyPartitions } from '../../collectors/maintenance/retention';
+import { dropOldReadings, dropOldRollups, ensureDailyPartitions } from '../../collectors/maintenance/retention';
 import { rollUpHours } from '../../collectors/maintenance/rollups';
 import { markStaleTargets } from '../../collectors/maintenance/stale';
 import { holdSchedulerLease, resignScheduler } from '../../collectors/scheduler-election';
 import { createTestDatabase, type TestDatabase } from '../setup/database';
-import { addSketch, noAlerts } from './fleet-fixture';
+import { addSketch } from './fleet-fixture';
 
 const DAY = 86_400_000;
 
@@ -95,5 +95,16 @@ describe('maintenance', () => {
     expect(later.droppedPartitions).toEqual(created);
     expect(later.deletedRows).toBeGreaterThanOrEqual(1);
     expect(await t.db('readings').where({ target_id: targetIds[0] }).count('* as n').first()).toEqual({ n: 0 });
+  });
+
+  it('when hourly rollups age past their own retention, then they are deleted and younger ones kept', async () => {
+    const now = Date.now();
+    const { sketchId, targetIds } = await addSketch(t.db, ['http://127.0.0.1:9/rolled']);
+    const hourAgo = (days: number) => new Date(Math.floor((now - days * DAY) / 3_600_000) * 3_600_000);
+    const rollup = (days: number) => ({ target_id: targetIds[0], sketch_id: sketchId, hour: hourAgo(days), readings: 120, failures: 0 });
+    await t.db('reading_rollups_hourly').insert([rollup(500), rollup(401), rollup(399), rollup(1)]);
+    expect(await dropOldRollups(t.db, now, 400)).toBe(2);
+    const left = await t.db('reading_rollups_hourly').where({ target_id: targetIds[0] }).orderBy('hour').pluck('hour');
+    expect(left.map((h: Date) => h.getTime())).toEqual([hourAgo(399).getTime(), hourAgo(1).getTime()]);
   });
 });

@@ -20,6 +20,12 @@ describe('npm start with bad configuration', () => {
     expect(r.output).toMatch(/Fix: unset PORT/);
   });
 
+  it('when the rollups would be dropped before the raw readings they stand in for, then it stops naming both settings', () => {
+    const r = startWith({ RAW_RETENTION_DAYS: '30', ROLLUP_RETENTION_DAYS: '7' });
+    expect(r.status).toBe(1);
+    expect(r.output).toMatch(/ROLLUP_RETENTION_DAYS: must be at least RAW_RETENTION_DAYS \(30\).*\(got '7'\)\. Fix: raise ROLLUP_RETENTION_DAYS/);
+  });
+
   it('when DATA_DIR cannot be written, then it stops naming DATA_DIR', () => {
     const r = startWith({ DATA_DIR: '/proc/brimwatch-cannot-write-here' });
     expect(r.status).toBe(1);
