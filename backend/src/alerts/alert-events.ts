@@ -1,11 +1,10 @@
 import type { Knex } from 'knex';
+import type { AlertEventKind, AlertLevel } from '../api-types';
 import type { Caller } from '../auth/caller';
 import { recordAudit } from '../audit/record';
-import type { AlertLevel } from './settings';
 
-export type AlertEventKind = 'opened' | 'level_changed' | 'acknowledged' | 'resolved' | 'notified' | 'escalated';
-
-export interface AlertEvent {
+/** A step to record; the API shows it back as an `AlertEvent`. */
+export interface NewAlertEvent {
   alertId: number;
   sketchId: number;
   at: Date;
@@ -20,7 +19,7 @@ export interface AlertEvent {
 }
 
 /** Stores one step of an alert's timeline and its audit entry, in the caller's transaction. */
-export async function recordAlertEvent(trx: Knex.Transaction, event: AlertEvent): Promise<void> {
+export async function recordAlertEvent(trx: Knex.Transaction, event: NewAlertEvent): Promise<void> {
   const person = event.actor === 'system' ? null : event.actor;
   await trx('alert_events').insert({
     alert_id: event.alertId,

@@ -1,10 +1,11 @@
+import type { Alert, AlertDetail, AlertWithEvents } from '../api-types';
 import type { Caller } from '../auth/caller';
 import type { Db } from '../db';
 import { AppError } from '../http/errors';
 import { findTeam } from '../queries/sketches';
 import { alertById, updateAlert } from './alert-store';
 import { recordAlertEvent } from './alert-events';
-import { eventsOf, findAlerts, type AlertEventView, type AlertView } from './alert-views';
+import { eventsOf, findAlerts } from './alert-views';
 
 export type AlertStateFilter = 'live' | 'open' | 'acknowledged' | 'resolved' | 'all';
 
@@ -32,7 +33,7 @@ export async function teamIdOf(db: Db, team: string): Promise<number> {
   throw new AppError(400, 'unknown_team', `There is no team '${team}'; use the slug of one of ${slugs.join(', ') || '(none yet: an admin creates teams)'}.`, 'team');
 }
 
-export async function listAlerts(db: Db, input: AlertListInput, now: Date): Promise<{ alerts: AlertView[] }> {
+export async function listAlerts(db: Db, input: AlertListInput, now: Date): Promise<{ alerts: Alert[] }> {
   const teamId = input.team === undefined ? undefined : await teamIdOf(db, input.team);
   const alerts = await findAlerts(db, { states: STATES[input.state], levels: input.level, teamId, service: input.service, sketchId: input.sketch, limit: input.limit, now });
   return { alerts };
@@ -42,14 +43,14 @@ function notFound(id: number): AppError {
   return new AppError(404, 'alert_not_found', `There is no alert with id ${id}; GET /api/v1/alerts lists the open ones.`, 'id');
 }
 
-export async function alertDetail(db: Db, id: number, now: Date): Promise<{ alert: AlertView; events: AlertEventView[] }> {
+export async function alertDetail(db: Db, id: number, now: Date): Promise<AlertDetail> {
   const [alert] = await findAlerts(db, { states: STATES.all, levels: [], alertId: id, limit: 1, now });
   if (!alert) throw notFound(id);
   return { alert, events: (await eventsOf(db, [id])).get(id) ?? [] };
 }
 
 /** The sketch page's alert timeline: its alerts, newest first, each with its steps. */
-export async function sketchAlerts(db: Db, sketchId: number, now: Date): Promise<{ sketchId: number; alerts: (AlertView & { events: AlertEventView[] })[] }> {
+export async function sketchAlerts(db: Db, sketchId: number, now: Date): Promise<{ sketchId: number; alerts: AlertWithEvents[] }> {
   const sketch = await db('sketches').where({ id: sketchId }).first('id');
   if (!sketch) throw new AppError(404, 'sketch_not_found', `There is no sketch with id ${sketchId}; GET /api/v1/sketches lists them.`, 'id');
   const alerts = await findAlerts(db, { states: STATES.all, levels: [], sketchId, limit: 20, now });
@@ -63,7 +64,7 @@ export async function sketchAlerts(db: Db, sketchId: number, now: Date): Promise
  * sent), escalation stops, and who, when and why are kept on the alert, its
  * timeline and the audit log.
  */
-export async function acknowledgeAlert(db: Db, caller: Caller, id: number, note: string | null, now: Date): Promise<{ alert: AlertView; events: AlertEventView[] }> {
+export async function acknowledgeAlert(db: Db, caller: Caller, id: number, note: string | null, now: Date): Promise<AlertDetail> {
   await db.transaction(async (trx) => {
     const alert = await alertById(trx, id, 'lock');
     if (!alert) throw notFound(id);

@@ -1,5 +1,5 @@
 import type { HealthLevel } from '../maths/health-levels';
-import type { AlertLevel } from './settings';
+import type { AlertLevel } from '../api-types';
 
 /** What the lifecycle needs to know of a live (open or acknowledged) alert. */
 export interface LiveAlertState {

@@ -1,6 +1,6 @@
 import type { Knex } from 'knex';
 import type { AlertState, LastNotice, NoticeKind } from './notify-decision';
-import type { AlertLevel } from './settings';
+import type { AlertLevel } from '../api-types';
 
 export type Q = Knex | Knex.Transaction;
 

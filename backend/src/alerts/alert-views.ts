@@ -1,31 +1,7 @@
 import type { Knex } from 'knex';
+import type { Alert, AlertEvent } from '../api-types';
 import { severitySql } from '../queries/level-order';
 import type { Q } from './alert-store';
-
-export interface AlertView {
-  id: number;
-  sketchId: number;
-  sketch: string;
-  service: string;
-  team: string;
-  teamName: string;
-  state: 'open' | 'acknowledged' | 'resolved';
-  level: string;
-  /** The fullest instance's load now, as a fraction of capacity. */
-  load: number | null;
-  openedAt: string;
-  levelSince: string;
-  clearSince: string | null;
-  acknowledgedAt: string | null;
-  acknowledgedBy: { login: string; name: string } | null;
-  acknowledgeNote: string | null;
-  resolvedAt: string | null;
-  escalatedAt: string | null;
-  lastNotifiedAt: string | null;
-  lastNotifiedKind: string | null;
-  /** When a quiet window in force now over this sketch ends; e-mail waits until then. */
-  quietUntil: string | null;
-}
 
 export interface AlertFilter {
   states: string[];
@@ -40,7 +16,7 @@ export interface AlertFilter {
 
 const iso = (v: unknown) => (v === null || v === undefined ? null : new Date(v as string).toISOString());
 
-function viewOf(r: Record<string, unknown>): AlertView {
+function viewOf(r: Record<string, unknown>): Alert {
   return {
     id: Number(r.id),
     sketchId: Number(r.sketch_id),
@@ -48,8 +24,8 @@ function viewOf(r: Record<string, unknown>): AlertView {
     service: String(r.service),
     team: String(r.team),
     teamName: String(r.team_name),
-    state: r.state as AlertView['state'],
-    level: String(r.level),
+    state: r.state as Alert['state'],
+    level: String(r.level) as Alert['level'],
     load: r.load === null ? null : Number(r.load),
     openedAt: iso(r.opened_at) as string,
     levelSince: iso(r.level_since) as string,
@@ -66,7 +42,7 @@ function viewOf(r: Record<string, unknown>): AlertView {
 }
 
 /** Live alerts first, worst level first, unacknowledged before acknowledged, oldest first; then resolved ones, newest first. */
-export async function findAlerts(q: Q, f: AlertFilter): Promise<AlertView[]> {
+export async function findAlerts(q: Q, f: AlertFilter): Promise<Alert[]> {
   const query = q('alerts as a')
     .join('sketches as s', 's.id', 'a.sketch_id')
     .join('services as sv', 'sv.id', 's.service_id')
@@ -96,24 +72,14 @@ export async function findAlerts(q: Q, f: AlertFilter): Promise<AlertView[]> {
   return (await query).map(viewOf);
 }
 
-export interface AlertEventView {
-  id: number;
-  at: string;
-  kind: string;
-  level: string;
-  actor: string;
-  note: string | null;
-  mail: { id: number; subject: string; recipients: string[]; attempts: number; sentAt: string | null; nextAttemptAt: string | null; lastError: string | null } | null;
-}
-
 /** The timelines of some alerts, oldest step first, each notice with how its e-mail fared. */
-export async function eventsOf(q: Q | Knex, alertIds: number[]): Promise<Map<number, AlertEventView[]>> {
+export async function eventsOf(q: Q | Knex, alertIds: number[]): Promise<Map<number, AlertEvent[]>> {
   const rows = await q('alert_events as e')
     .leftJoin('mail_outbox as m', 'm.id', 'e.mail_id')
     .whereIn('e.alert_id', alertIds)
     .orderBy([{ column: 'e.at' }, { column: 'e.id' }])
     .select('e.*', 'm.subject', 'm.recipients', 'm.attempts', 'm.sent_at', 'm.next_attempt_at', 'm.last_error');
-  const byAlert = new Map<number, AlertEventView[]>(alertIds.map((id) => [id, []]));
+  const byAlert = new Map<number, AlertEvent[]>(alertIds.map((id) => [id, []]));
   for (const r of rows) {
     byAlert.get(Number(r.alert_id))?.push({
       id: Number(r.id),

@@ -1,6 +1,7 @@
 import type { Db } from '../db';
 import { severitySql } from '../queries/level-order';
-import { figuresOf, type Figures, type StatusRow } from '../services/sketches/figures';
+import type { Figures } from '../api-types';
+import { figuresOf, type StatusRow } from '../services/sketches/figures';
 
 export interface DigestRow {
   id: number;

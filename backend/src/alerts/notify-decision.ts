@@ -1,5 +1,5 @@
 import { severity } from '../maths/health-levels';
-import type { AlertLevel } from './settings';
+import type { AlertLevel } from '../api-types';
 
 export type AlertState = 'open' | 'acknowledged' | 'resolved';
 

@@ -1,11 +1,10 @@
+import type { QuietScope, QuietWindow } from '../api-types';
 import type { Caller } from '../auth/caller';
 import { recordAudit } from '../audit/record';
 import type { Db } from '../db';
 import { AppError } from '../http/errors';
 import { teamIdOf } from './alert-service';
 import type { Q } from './alert-store';
-
-export type QuietScope = 'sketch' | 'service' | 'team';
 
 export interface QuietWindowInput {
   scope: QuietScope;
@@ -17,31 +16,13 @@ export interface QuietWindowInput {
   reason: string;
 }
 
-export interface QuietWindowView {
-  id: number;
-  scope: QuietScope;
-  sketchId: number | null;
-  sketch: string | null;
-  service: string | null;
-  team: string | null;
-  teamName: string | null;
-  startsAt: string;
-  endsAt: string;
-  reason: string;
-  createdBy: string;
-  createdAt: string;
-  cancelledAt: string | null;
-  cancelledBy: string | null;
-  status: 'upcoming' | 'in force' | 'over' | 'ended early';
-}
-
 /** Longer than this is not a planned piece of work; it would hide a real problem. */
 export const MAX_QUIET_DAYS = 30;
 const DAY_MS = 86_400_000;
 
 const iso = (v: unknown) => (v === null || v === undefined ? null : new Date(v as string).toISOString());
 
-function viewOf(r: Record<string, unknown>, now: Date): QuietWindowView {
+function viewOf(r: Record<string, unknown>, now: Date): QuietWindow {
   const starts = new Date(r.starts_at as string);
   const ends = new Date(r.ends_at as string);
   const status = r.cancelled_at ? 'ended early' : now < starts ? 'upcoming' : now < ends ? 'in force' : 'over';
@@ -72,7 +53,7 @@ function windowsQuery(q: Q) {
     .select('w.*', 'sk.name as sketch', 'sv.name as service', 't.slug as team', 't.name as team_name');
 }
 
-export async function listQuietWindows(db: Db, filter: { when: 'active' | 'past' | 'all'; team?: string }, now: Date): Promise<{ quietWindows: QuietWindowView[] }> {
+export async function listQuietWindows(db: Db, filter: { when: 'active' | 'past' | 'all'; team?: string }, now: Date): Promise<{ quietWindows: QuietWindow[] }> {
   const query = windowsQuery(db).orderBy([{ column: 'w.starts_at' }, { column: 'w.id' }]).limit(500);
   if (filter.when === 'active') query.whereNull('w.cancelled_at').where('w.ends_at', '>', now);
   if (filter.when === 'past') query.where((w) => w.whereNotNull('w.cancelled_at').orWhere('w.ends_at', '<=', now));
@@ -104,7 +85,7 @@ function checkTimes(startsAt: Date, endsAt: Date, now: Date): void {
   }
 }
 
-export async function createQuietWindow(db: Db, caller: Caller, input: QuietWindowInput, now: Date): Promise<QuietWindowView> {
+export async function createQuietWindow(db: Db, caller: Caller, input: QuietWindowInput, now: Date): Promise<QuietWindow> {
   const startsAt = input.startsAt ?? now;
   checkTimes(startsAt, input.endsAt, now);
   const target = await targetOf(db, input);
@@ -119,7 +100,7 @@ export async function createQuietWindow(db: Db, caller: Caller, input: QuietWind
 }
 
 /** Ends a window now (or calls off one not yet begun); the row stays, so who quieted what stays on record. */
-export async function endQuietWindow(db: Db, caller: Caller, id: number, now: Date): Promise<QuietWindowView> {
+export async function endQuietWindow(db: Db, caller: Caller, id: number, now: Date): Promise<QuietWindow> {
   return db.transaction(async (trx) => {
     const row = await trx('quiet_windows').where({ id }).forUpdate().first();
     if (!row) throw new AppError(404, 'quiet_window_not_found', `There is no quiet window with id ${id}; GET /api/v1/quiet-windows lists them.`, 'id');

@@ -1,9 +1,7 @@
 import type { Config } from '../config';
 import { loadConfig } from '../config';
-import type { HealthLevel } from '../maths/health-levels';
+import type { AlertLevel } from '../api-types';
 
-/** An alert is raised for every level but clear. */
-export type AlertLevel = Exclude<HealthLevel, 'clear'>;
 export const ALERT_LEVELS: readonly AlertLevel[] = ['brimmed', 'unreachable', 'stale', 'watch'];
 
 export interface AlertSettings {

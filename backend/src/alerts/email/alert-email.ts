@@ -1,5 +1,5 @@
 import type { AlertState, NoticeKind } from '../notify-decision';
-import type { AlertLevel } from '../settings';
+import type { AlertLevel } from '../../api-types';
 import { CAUTION, figureRows, resizeSection, type AlertFacts } from './alert-facts';
 import { renderText, type MailDocument, type MailSection } from './document';
 import { formatLoad, formatSpan, formatWhen } from './figures';

@@ -1,4 +1,4 @@
-import type { SketchDetail } from '../../services/sketches/detail';
+import type { SketchDetail } from '../../api-types';
 import { formatPercent } from '../../maths/format';
 import { CAUTION } from './levels';
 import { formatBytes, formatCount, formatLoad, formatRisk, formatWhen } from './figures';

@@ -1,13 +1,14 @@
+import type { DumpFormat, HistogramBin } from '../../api-types';
 import { analyseDump } from '../../maths/dump';
 import type { DumpAnalysis } from '../../maths/dump-verdict';
 import { SketchMathsError } from '../../maths/errors';
 import { AppError } from '../../http/errors';
 import { DelimitedReader, type TextMatrix } from './delimited-reader';
 import { badDump } from './dump-error';
-import { CounterHistogram, type HistogramBin } from './histogram';
+import { CounterHistogram } from './histogram';
 import { JsonDumpReader } from './json-reader';
 import { RawReader } from './raw-reader';
-import { isRawFormat, MAX_DUMP_DEPTH, type DumpFormat } from './shape';
+import { isRawFormat, MAX_DUMP_DEPTH } from './shape';
 import { mismatch, sniff, SNIFF_BYTES } from './sniff';
 
 export interface DumpSettings {

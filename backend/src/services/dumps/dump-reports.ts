@@ -1,3 +1,4 @@
+import type { DumpFigures, DumpFormat, DumpHead, DumpList, DumpReport } from '../../api-types';
 import type { Caller } from '../../auth/caller';
 import { recordAudit } from '../../audit/record';
 import type { Db } from '../../db';
@@ -5,12 +6,9 @@ import { AppError } from '../../http/errors';
 import { findDumpReport, insertDumpReport, listDumpReports, type DumpReportRow } from '../../queries/dump-reports';
 import type { DumpResult } from './dump-reader';
 import type { ResolvedDump } from './dump-settings';
-import { dumpFigures, type DumpFigures, type DumpReport } from './report';
-import type { DumpFormat } from './shape';
+import { dumpFigures } from './report';
 
-export type DumpListItem = Omit<DumpReport, keyof DumpFigures> & Pick<DumpFigures, 'width' | 'depth' | 'level' | 'load'>;
-
-function headOf(row: DumpReportRow): Omit<DumpReport, keyof DumpFigures> {
+function headOf(row: DumpReportRow): DumpHead {
   return {
     id: Number(row.id),
     createdAt: new Date(row.created_at).toISOString(),
@@ -56,7 +54,7 @@ export async function dumpReport(db: Db, id: number): Promise<DumpReport> {
   return { ...headOf(row), ...(row.report as unknown as DumpFigures) };
 }
 
-export async function listDumps(db: Db, q: { limit: number; before?: number; sketchId?: number }): Promise<{ items: DumpListItem[]; nextBefore: number | null }> {
+export async function listDumps(db: Db, q: { limit: number; before?: number; sketchId?: number }): Promise<DumpList> {
   const rows = await listDumpReports(db, q);
   const items = rows.map((row) => ({ ...headOf(row), width: row.width, depth: row.depth, level: row.level as DumpFigures['level'], load: Number(row.load) }));
   return { items, nextBefore: rows.length === q.limit ? items[items.length - 1].id : null };

@@ -1,15 +1,10 @@
+import type { HistogramBin } from '../../api-types';
+
 /**
- * How the counter values of a dump spread, in bins that double in width:
- * one bin for 0, then [1, 1], [2, 3], [4, 7], … A dump mixes a sea of small
+ * Bins that double in width (see HistogramBin): a dump mixes a sea of small
  * counters with a few heavy keys, so equal-width bins would put nearly
  * everything in the first one.
  */
-export interface HistogramBin {
-  from: number;
-  to: number;
-  cells: number;
-}
-
 const BINS = 66; // 0, then one per power of two up to 2^64
 
 function binOf(value: number): number {

@@ -1,3 +1,5 @@
+import type { DumpFormat } from '../../api-types';
+
 /**
  * A count-min sketch has a handful of rows: δ = e^(−k), so 64 rows already
  * stand for a confidence no one asks for. A file with more lines than that is
@@ -6,8 +8,7 @@
  */
 export const MAX_DUMP_DEPTH = 64;
 
-export const DUMP_FORMATS = ['csv', 'json', 'u32le', 'u64le'] as const;
-export type DumpFormat = (typeof DUMP_FORMATS)[number];
+export const DUMP_FORMATS = ['csv', 'json', 'u32le', 'u64le'] as const satisfies readonly DumpFormat[];
 
 /** Bytes per counter of the raw formats. */
 export const RAW_WORD_BYTES = { u32le: 4, u64le: 8 } as const;

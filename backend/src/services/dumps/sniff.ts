@@ -1,4 +1,4 @@
-import type { DumpFormat } from './shape';
+import type { DumpFormat } from '../../api-types';
 
 /** What the first bytes of a file look like, whatever its name says. */
 export type ContentKind = 'json' | 'delimited' | 'text' | 'binary';

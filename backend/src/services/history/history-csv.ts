@@ -1,7 +1,8 @@
+import type { SketchTimeline } from '../../api-types';
 import type { Db } from '../../db';
 import { historySketches, type HistoryFilter } from '../../queries/history-sketches';
 import { csvRecord } from '../csv/csv-write';
-import { timelinesOf, type HistoryPeriod, type SketchTimeline } from './history';
+import { timelinesOf, type HistoryPeriod } from './history';
 
 export const HISTORY_CSV_HEADER = ['sketch_id', 'service', 'sketch', 'team', 'record', 'level', 'start', 'end', 'seconds', 'alert_event', 'actor', 'note'];
 

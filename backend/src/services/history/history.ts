@@ -1,5 +1,6 @@
 import { FAILURES_FOR_UNREACHABLE } from '../../../../collectors/judge';
 import { STALE_AFTER_INTERVALS } from '../../../../collectors/maintenance/stale';
+import type { FleetHistory, SketchTimeline } from '../../api-types';
 import type { Db } from '../../db';
 import type { HealthLevel } from '../../maths/health-levels';
 import { alertEventsIn, historySketches, type HistoryFilter, type HistorySketchRow } from '../../queries/history-sketches';
@@ -14,39 +15,6 @@ export interface HistoryPeriod {
   from: Date;
   to: Date;
   now: Date;
-}
-
-export interface AlertMark {
-  at: string;
-  alertId: number;
-  kind: string;
-  level: string;
-  actor: string;
-  note: string | null;
-}
-
-export interface SketchTimeline {
-  id: number;
-  service: string;
-  sketch: string;
-  team: string;
-  teamName: string;
-  spans: { from: string; to: string; level: HealthLevel | null }[];
-  alerts: AlertMark[];
-  /** Seconds at each level within the period; time without readings is left out. */
-  secondsAt: Record<HealthLevel, number>;
-}
-
-export interface FleetHistory {
-  from: string;
-  to: string;
-  /** Where the timelines stop: `to`, or now when `to` lies ahead. */
-  end: string;
-  resolution: 'readings' | 'hourly';
-  page: number;
-  pageSize: number;
-  total: number;
-  sketches: SketchTimeline[];
 }
 
 const pointOf = (r: LevelChangeRow): LevelPoint => ({

@@ -1,3 +1,4 @@
+import type { ImportPreview, ImportSummary, RowVerdict } from '../../api-types';
 import type { Caller } from '../../auth/caller';
 import { recordAudit } from '../../audit/record';
 import type { Db } from '../../db';
@@ -5,30 +6,7 @@ import { AppError } from '../../http/errors';
 import { registerSketch } from '../sketches/register';
 import type { TargetPolicy } from '../sketches/target-check';
 import { inventoryRows } from './inventory-rows';
-import { checkRows, type CheckedRow, type RowProblem } from './row-checks';
-
-export interface RowVerdict {
-  line: number;
-  service: string | null;
-  sketch: string | null;
-  team: string | null;
-  targets: string | null;
-  newService: boolean;
-  ok: boolean;
-  problems: RowProblem[];
-}
-
-export interface ImportPreview {
-  rows: RowVerdict[];
-  ready: number;
-  withProblems: number;
-}
-
-export interface ImportSummary {
-  imported: number;
-  servicesCreated: string[];
-  sketches: { line: number; id: number; service: string; sketch: string; team: string }[];
-}
+import { checkRows, type CheckedRow } from './row-checks';
 
 const text = (v: unknown) => (typeof v === 'string' ? v : null);
 

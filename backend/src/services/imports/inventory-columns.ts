@@ -1,16 +1,10 @@
+import type { InventoryColumn } from '../../api-types';
+
 /**
  * The columns of an inventory file: one sketch per row, the same fields as
  * registering one sketch (POST /api/v1/sketches). The page documents them
  * from this list and the template is built from it, so they cannot drift.
  */
-export interface InventoryColumn {
-  name: string;
-  required: 'yes' | 'no' | 'targetUrl or instances';
-  kind: 'text' | 'number' | 'instances';
-  meaning: string;
-  example: string;
-}
-
 export const INVENTORY_COLUMNS: readonly InventoryColumn[] = [
   { name: 'service', required: 'yes', kind: 'text', meaning: 'The service that carries the sketch; a new name creates the service for the team.', example: 'checkout' },
   { name: 'sketch', required: 'yes', kind: 'text', meaning: "The sketch's `sketch` label in the service's exposition.", example: 'per-card-limiter' },

@@ -1,7 +1,8 @@
+import type { InventoryColumn } from '../../api-types';
 import { AppError } from '../../http/errors';
 import { readCsv } from '../csv/csv-read';
 import { sniff } from '../dumps/sniff';
-import { columnKey, INVENTORY_COLUMNS, type InventoryColumn } from './inventory-columns';
+import { columnKey, INVENTORY_COLUMNS } from './inventory-columns';
 
 export const MAX_INVENTORY_ROWS = 1000;
 

@@ -1,3 +1,4 @@
+import type { RowProblem } from '../../api-types';
 import type { Caller } from '../../auth/caller';
 import { assertTeamAccess } from '../../auth/team-access';
 import type { Db } from '../../db';
@@ -7,14 +8,6 @@ import { registrationInput, type RegistrationInput } from '../../routes/sketch-i
 import { targetsOf } from '../sketches/register';
 import { checkTargetUrls, type TargetPolicy } from '../sketches/target-check';
 import type { InventoryRow } from './inventory-rows';
-
-export interface RowProblem {
-  field?: string;
-  code: string;
-  /** The status a single registration would answer: 400, 403 (another team's) or 409 (exists). */
-  status: number;
-  message: string;
-}
 
 export interface CheckedRow {
   line: number;

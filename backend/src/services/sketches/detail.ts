@@ -1,29 +1,14 @@
+import type { Figures, InstanceView, SketchDetail } from '../../api-types';
 import type { Db } from '../../db';
 import { severity } from '../../maths/health-levels';
 import { AppError } from '../../http/errors';
 import { findSketch, targetsWithStatus, type SketchRow } from '../../queries/sketches';
-import { figuresOf, isoOrNull, type Figures, type StatusRow } from './figures';
-import { settingsView, type SketchSettingsView } from './fleet';
-import { resizeAdvice, type ResizeAdvice } from './resize-advice';
+import { figuresOf, isoOrNull, type StatusRow } from './figures';
+import { settingsView } from './fleet';
+import { resizeAdvice } from './resize-advice';
 
-export interface Instance {
-  targetId: number;
-  instance: string;
-  targetUrl: string;
-  nonzeroCells: number[] | null;
-  figures: Figures;
-}
-
-export type InstanceView = Omit<Instance, 'figures'> & Figures;
-
-export type SketchDetail = SketchSettingsView &
-  Figures & {
-    targetUrl: string | null;
-    instances: InstanceView[];
-    resizePlan: ResizeAdvice | null;
-    createdAt: string | null;
-    updatedAt: string | null;
-  };
+/** An instance with its figures kept apart, so the worst one can be picked before they are spread into the answer. */
+export type Instance = Omit<InstanceView, keyof Figures> & { figures: Figures };
 
 /** The worst instance speaks for the sketch: highest severity, then highest load. */
 function worstFirst(a: Instance, b: Instance): number {

@@ -1,3 +1,4 @@
+import type { Figures } from '../../api-types';
 import type { HealthLevel } from '../../maths/health-levels';
 import { UNREAD_LEVEL } from '../../queries/level-order';
 
@@ -16,35 +17,6 @@ export interface StatusRow {
   conservative: boolean | null;
   nonzero_cells?: number[] | null;
   judgement: Record<string, unknown> | null;
-}
-
-/** What the API says about one instance, or about a sketch through its worst instance. */
-export interface Figures {
-  level: HealthLevel;
-  levelSince: string | null;
-  streamTotal: number | null;
-  width: number | null;
-  depth: number | null;
-  counterBytes: number | null;
-  windowSeconds: number | null;
-  conservative: boolean | null;
-  load: number | null;
-  capacity: number | null;
-  boundNow: number | null;
-  missRisk: number | null;
-  missRiskNote: string | null;
-  relativeError: number | null;
-  distinctEstimate: number | null;
-  saturatedRows: number | null;
-  trend: string | null;
-  trendReason: string | null;
-  brimDate: string | null;
-  brimEarliest: string | null;
-  brimLatest: string | null;
-  lastReadingAt: string | null;
-  lastOkAt: string | null;
-  lastError: string | null;
-  memoryBytes: number | null;
 }
 
 export const isoOrNull = (value: unknown): string | null => {

@@ -1,3 +1,4 @@
+import type { FleetSummary } from '../../api-types';
 import { HEALTH_LEVELS_WORST_FIRST, type HealthLevel } from '../../maths/health-levels';
 import type { FleetRow } from '../../queries/fleet';
 
@@ -33,13 +34,6 @@ export interface FleetQuery {
   page: number;
   pageSize: number;
   now: Date;
-}
-
-export interface FleetSummary {
-  perLevel: Record<HealthLevel, number>;
-  brimmingWithin7Days: number;
-  brimmingWithin30Days: number;
-  totalMemoryBytes: number;
 }
 
 type Value = string | number | null;

@@ -1,32 +1,9 @@
+import type { FleetPage, SketchSettingsView } from '../../api-types';
 import type { Db } from '../../db';
 import { statusesOf } from '../../queries/fleet';
-import { figuresOf, type Figures, type StatusRow } from './figures';
+import { figuresOf, type StatusRow } from './figures';
 import type { FleetSnapshot } from './fleet-snapshot';
-import { selectFleet, type FleetQuery, type FleetSummary } from './fleet-table';
-
-export interface SketchSettingsView {
-  id: number;
-  service: string;
-  sketch: string;
-  team: string;
-  teamName: string;
-  errorBudget: number;
-  confidence: number;
-  watchLine: number;
-  leadTimeDays: number;
-  scrapeIntervalSeconds: number;
-  sizedTotal: number | null;
-}
-
-export type FleetItem = SketchSettingsView & Figures & { instanceCount: number };
-
-export interface FleetPage {
-  items: FleetItem[];
-  total: number;
-  page: number;
-  pageSize: number;
-  summary: FleetSummary;
-}
+import { selectFleet, type FleetQuery } from './fleet-table';
 
 interface SettingsColumns {
   id: number;

@@ -1,21 +1,14 @@
+import type { Figures, ResizeAdvice } from '../../api-types';
 import type { Db } from '../../db';
-import { forecastBrim, type BrimForecast } from '../../maths/forecast';
-import { DEFAULT_HEADROOM, DEFAULT_HORIZON_DAYS, forecastTotalAt, resizePlan, type ResizePlan } from '../../maths/resize';
+import { forecastBrim } from '../../maths/forecast';
+import { DEFAULT_HEADROOM, DEFAULT_HORIZON_DAYS, forecastTotalAt, resizePlan } from '../../maths/resize';
 import { recentTotals } from '../../queries/readings';
-import type { Figures } from './figures';
 
 const DAY_MS = 86_400_000;
 /** The forecast behind a plan looks back over a week, thinned to this many points (Theil–Sen is quadratic). */
 const LOOKBACK_DAYS = 7;
 const FIT_POINTS = 400;
 const MIN_RESTARTS_AS_RUNS = 2;
-
-export interface ResizeAdvice extends ResizePlan {
-  horizonDays: number;
-  headroom: number;
-  forecastTotal: number;
-  forecastTrend: BrimForecast['trend'];
-}
 
 /**
  * The resize plan of the sketch page: the stream total its trend reaches in 90

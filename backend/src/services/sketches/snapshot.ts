@@ -1,6 +1,7 @@
 import type { Knex } from 'knex';
+import type { SketchSettingsView } from '../../api-types';
 import { findSketch } from '../../queries/sketches';
-import { settingsView, type SketchSettingsView } from './fleet';
+import { settingsView } from './fleet';
 
 export type SketchSnapshot = SketchSettingsView & { instances: { instance: string; targetUrl: string }[] };
 

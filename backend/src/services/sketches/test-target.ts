@@ -1,22 +1,8 @@
-import { assess, type Assessment } from '../../maths/assess';
-import type { OccupancyEstimate } from '../../maths/occupancy';
+import type { TargetTest } from '../../api-types';
+import { assess } from '../../maths/assess';
 import { scrapeOnce } from '../../../../collectors/scrape-once';
-import type { FailureKind } from '../../../../collectors/scrape';
-import type { SketchSample } from '../../../../collectors/exposition/read-sketch';
 import type { TestTargetInput } from '../../routes/sketch-input';
 import type { TargetPolicy } from './target-check';
-
-export type TargetTest =
-  | {
-      ok: true;
-      targetUrl: string;
-      sketch: string;
-      reading: SketchSample & { memoryBytes: number };
-      occupancy: OccupancyEstimate;
-      assessment: Assessment | null;
-      scrapeMs: number;
-    }
-  | { ok: false; targetUrl: string; sketch: string; kind: FailureKind; reason: string; scrapeMs: number };
 
 /**
  * "Test the target" before saving: one scrape through the collectors' own code
