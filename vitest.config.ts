@@ -4,6 +4,7 @@ import { quasar } from '@quasar/vite-plugin';
 import { fileURLToPath } from 'node:url';
 
 const maths = fileURLToPath(new URL('./backend/src/maths', import.meta.url));
+const apiTypes = fileURLToPath(new URL('./backend/src/api-types', import.meta.url));
 
 // Three kinds of test, one command: node-side tests share a private PostgreSQL
 // cluster started once by the global setup; component tests run under jsdom;
@@ -24,7 +25,7 @@ export default defineConfig({
       },
       {
         plugins: [vue({ template: { transformAssetUrls: {} } }), quasar({ sassVariables: false })],
-        resolve: { alias: { '@brimwatch/maths': maths, '@': fileURLToPath(new URL('./frontend/src', import.meta.url)) } },
+        resolve: { alias: { '@brimwatch/maths': maths, '@brimwatch/api-types': apiTypes, '@': fileURLToPath(new URL('./frontend/src', import.meta.url)) } },
         test: {
           name: 'frontend',
           environment: 'jsdom',

@@ -6,14 +6,16 @@ import { fileURLToPath } from 'node:url';
 
 const here = (path: string): string => fileURLToPath(new URL(path, import.meta.url));
 
-// The maths lives with the server so that server, collectors and browser share
-// one source of truth; Vite reaches it through an alias outside this root.
+// The maths and the API's answer types live with the server so that server,
+// collectors and browser share one source of truth; Vite reaches them through
+// aliases outside this root.
 export default defineConfig({
   root: here('.'),
   plugins: [vue(), quasar({ sassVariables: false })],
   resolve: {
     alias: {
       '@brimwatch/maths': here('../backend/src/maths'),
+      '@brimwatch/api-types': here('../backend/src/api-types'),
       '@': here('./src'),
     },
   },

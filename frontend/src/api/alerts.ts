@@ -1,12 +1,23 @@
 // The alerts API (GET/POST /api/v1/alerts…, /api/v1/quiet-windows…), typed for the pages.
+import type { Alert, AlertDetail, AlertWithEvents, QuietScope, QuietWindow } from '@brimwatch/api-types';
 import { get, request } from './client';
-import type { Alert, AlertEvent, AlertWithEvents, QuietWindow, QuietWindowInput } from './alert-types';
+
+/** The body of a new quiet window: times as ISO strings; the server starts it now when startsAt is left out. */
+export interface QuietWindowInput {
+  scope: QuietScope;
+  sketchId?: number;
+  service?: string;
+  team?: string;
+  startsAt?: string;
+  endsAt: string;
+  reason: string;
+}
 
 export async function fetchAlerts(query: { state?: string; team?: string; level?: string } = {}, signal?: AbortSignal): Promise<Alert[]> {
   return (await get<{ alerts: Alert[] }>('/api/v1/alerts', { query, signal })).alerts;
 }
 
-export function acknowledgeAlert(id: number, note: string): Promise<{ alert: Alert; events: AlertEvent[] }> {
+export function acknowledgeAlert(id: number, note: string): Promise<AlertDetail> {
   return request(`/api/v1/alerts/${id}/acknowledge`, { method: 'POST', body: note.trim() ? { note: note.trim() } : {} });
 }
 

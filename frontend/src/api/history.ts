@@ -1,43 +1,6 @@
 // The history API: level timelines per sketch, and the same as a CSV file.
+import type { FleetHistory } from '@brimwatch/api-types';
 import { get } from './client';
-import type { Level } from '@/utils/levels';
-
-export interface HistorySpan {
-  from: string;
-  to: string;
-  level: Level | null;
-}
-
-export interface HistoryAlert {
-  at: string;
-  alertId: number;
-  kind: string;
-  level: string;
-  actor: string;
-  note: string | null;
-}
-
-export interface SketchTimeline {
-  id: number;
-  service: string;
-  sketch: string;
-  team: string;
-  teamName: string;
-  spans: HistorySpan[];
-  alerts: HistoryAlert[];
-  secondsAt: Record<Level, number>;
-}
-
-export interface FleetHistory {
-  from: string;
-  to: string;
-  end: string;
-  resolution: 'readings' | 'hourly';
-  page: number;
-  pageSize: number;
-  total: number;
-  sketches: SketchTimeline[];
-}
 
 export interface HistoryQuery {
   from: string;

@@ -1,7 +1,9 @@
 // The fleet API (GET/POST/PATCH /api/v1/sketches…), typed for the pages.
+import type { FleetPage, SketchDetail, SketchHistory, TargetTest } from '@brimwatch/api-types';
 import type { ChangeInput, RegistrationInput } from '../../../backend/src/routes/sketch-input';
+import type { AuditRow } from './admin';
+import type { TeamRef } from './auth';
 import { get, request } from './client';
-import type { AuditEntry, FleetPage, SketchDetail, SketchHistory, TargetTest, TeamSummary } from './sketch-types';
 
 export type { ChangeInput, RegistrationInput };
 
@@ -44,13 +46,13 @@ export function testTarget(input: { targetUrl: string; sketch: string; errorBudg
   return request<TargetTest>('/api/v1/sketches/test-target', { method: 'POST', body: input });
 }
 
-export async function fetchTeams(): Promise<TeamSummary[]> {
-  const answer = await get<{ teams: TeamSummary[] }>('/api/v1/teams');
+export async function fetchTeams(): Promise<TeamRef[]> {
+  const answer = await get<{ teams: TeamRef[] }>('/api/v1/teams');
   return answer.teams;
 }
 
 /** The sketch's own entries in the audit log, newest first (open to every role that reads the sketch). */
-export async function fetchSketchAudit(id: number): Promise<AuditEntry[]> {
-  const answer = await get<{ entries: AuditEntry[] }>(`/api/v1/sketches/${id}/audit`, { query: { pageSize: 50 } });
+export async function fetchSketchAudit(id: number): Promise<AuditRow[]> {
+  const answer = await get<{ entries: AuditRow[] }>(`/api/v1/sketches/${id}/audit`, { query: { pageSize: 50 } });
   return answer.entries;
 }

@@ -1,8 +1,8 @@
 // The uploads API: counter dump checks and the inventory import.
+import type { DumpList, DumpReport, ImportPreview, ImportSummary, InventoryColumn } from '@brimwatch/api-types';
 import { get, isApiError } from './client';
 import type { ApiError } from './errors';
 import { postForm, refusedBody } from './upload-request';
-import type { DumpList, DumpReport, ImportPreview, ImportSummary, InventoryColumn } from './upload-types';
 
 export const INVENTORY_TEMPLATE_URL = '/api/v1/imports/sketches/template';
 

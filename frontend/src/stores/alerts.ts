@@ -3,7 +3,8 @@
 import { defineStore } from 'pinia';
 import { ref, shallowRef } from 'vue';
 import { acknowledgeAlert, createQuietWindow, endQuietWindow, fetchAlerts, fetchQuietWindows } from '@/api/alerts';
-import type { Alert, QuietWindow, QuietWindowInput } from '@/api/alert-types';
+import type { Alert, QuietWindow } from '@brimwatch/api-types';
+import type { QuietWindowInput } from '@/api/alerts';
 import { toApiError, type ApiError } from '@/api/errors';
 
 export const ALERTS_REFRESH_MS = 30_000;

@@ -4,7 +4,7 @@
 import { defineStore } from 'pinia';
 import { ref, shallowRef } from 'vue';
 import { fetchFleet } from '@/api/sketches';
-import type { FleetPage } from '@/api/sketch-types';
+import type { FleetPage } from '@brimwatch/api-types';
 import { toApiError, type ApiError } from '@/api/errors';
 import { apiQueryFromFilters, DEFAULT_FILTERS, type FleetFilters } from '@/components/fleet/fleet-query';
 

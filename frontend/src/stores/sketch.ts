@@ -3,7 +3,7 @@
 import { defineStore } from 'pinia';
 import { ref, shallowRef } from 'vue';
 import { fetchReadings, fetchSketch } from '@/api/sketches';
-import type { SketchDetail, SketchHistory } from '@/api/sketch-types';
+import type { SketchDetail, SketchHistory } from '@brimwatch/api-types';
 import { toApiError, type ApiError } from '@/api/errors';
 
 export const RANGES = [

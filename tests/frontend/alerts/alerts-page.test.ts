@@ -3,7 +3,7 @@ import { createPinia, setActivePinia } from 'pinia';
 import { Quasar } from 'quasar';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import type { SessionUser } from '@/api/auth';
-import type { Alert, AlertWithEvents } from '@/api/alert-types';
+import type { Alert, AlertWithEvents } from '@brimwatch/api-types';
 import AlertTimeline from '@/components/alerts/AlertTimeline.vue';
 import { useSessionStore } from '@/stores/session';
 import { adminServer, person } from '../admin/admin-fake';

@@ -1,5 +1,5 @@
 // Answers of GET /api/v1/sketches for the Fleet page's tests, in the server's shape.
-import type { FleetItem, FleetPage } from '@/api/sketch-types';
+import type { FleetItem, FleetPage } from '@brimwatch/api-types';
 
 export function fleetItem(overrides: Partial<FleetItem> = {}): FleetItem {
   return {

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import type { SketchTimeline } from '@/api/history';
+import type { SketchTimeline } from '@brimwatch/api-types';
 import { alertMarks, barPieces, formatDuration, timelineSummary } from '@/components/history/history-bars';
 import { apiQuery, choiceFromQuery, queryFromChoice } from '@/components/history/history-query';
 

@@ -3,7 +3,7 @@ import { assess } from '@brimwatch/maths';
 import { riskFromLoad } from '@/components/sketch/charts/risk-from-load';
 import { readingSeries } from '@/components/sketch/charts/reading-series';
 import { chartEndX, forecastShape } from '@/components/sketch/charts/brim-forecast';
-import type { SketchHistory } from '@/api/sketch-types';
+import type { SketchHistory } from '@brimwatch/api-types';
 
 const HOUR = 3_600_000;
 const T0 = Date.parse('2026-11-25T00:00:00Z');

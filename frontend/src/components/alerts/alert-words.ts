@@ -1,6 +1,6 @@
 // How the Alerts page and the sketch's timeline put alerts into words.
 import type { Role, SessionUser } from '@/api/auth';
-import type { Alert, AlertEvent, AlertEventKind, QuietWindow } from '@/api/alert-types';
+import type { Alert, AlertEvent, AlertEventKind, QuietWindow } from '@brimwatch/api-types';
 import { formatRelative } from '@/utils/format';
 
 const RESPONDERS: readonly Role[] = ['responder', 'owner', 'sre', 'admin'];

@@ -1,5 +1,6 @@
 // The quiet-window form's fields and how they become the API's input.
-import type { QuietScope, QuietWindowInput } from '@/api/alert-types';
+import type { QuietScope } from '@brimwatch/api-types';
+import type { QuietWindowInput } from '@/api/alerts';
 
 export interface QuietFields {
   scope: QuietScope;

@@ -1,7 +1,7 @@
 // The fleet table's columns: level first (LOOK.md), then names, then figures
 // right-aligned. Each column's name is the server's sort name.
 import type { QTableColumn } from 'quasar';
-import type { FleetItem } from '@/api/sketch-types';
+import type { FleetItem } from '@brimwatch/api-types';
 import { formatBytes, formatCount, formatRelative, formatRisk } from '@/utils/format';
 import { descendingByDefault, type FleetSortName } from './fleet-query';
 

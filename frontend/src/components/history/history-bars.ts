@@ -1,6 +1,6 @@
 // Turns a sketch's level timeline into positioned pieces of a bar, and the
 // words that go with it; pure, so the page and its tests share it.
-import type { HistoryAlert, HistorySpan, SketchTimeline } from '@/api/history';
+import type { HistoryAlert, HistorySpan, SketchTimeline } from '@brimwatch/api-types';
 import { HEALTH_LEVELS_WORST_FIRST } from '@brimwatch/maths';
 import type { Level } from '@/utils/levels';
 

@@ -1,7 +1,7 @@
 // "Open in Planner" with this sketch's figures: its budget, confidence and
 // counter size, and the total it must hold from now on.
 import type { RouteLocationRaw } from 'vue-router';
-import type { SketchDetail } from '@/api/sketch-types';
+import type { SketchDetail } from '@brimwatch/api-types';
 
 type PlannerFields = Pick<SketchDetail, 'resizePlan' | 'sizedTotal' | 'streamTotal' | 'errorBudget' | 'confidence' | 'counterBytes'>;
 

@@ -1,6 +1,6 @@
 // The counter dump form's rules, mirroring the server's (backend/src/services/dumps/dump-settings.ts),
 // so most mistakes show beside the field before anything is sent; the server still decides.
-import type { DumpFormat } from '@/api/upload-types';
+import type { DumpFormat } from '@brimwatch/api-types';
 
 export interface DumpFields {
   format: DumpFormat;

@@ -2,7 +2,7 @@
 // values, cells on a log scale (a dump is mostly small counters), and the
 // error budget E drawn as the brass brim: cells right of it are over budget.
 import uPlot from 'uplot';
-import type { HistogramBin } from '@/api/upload-types';
+import type { HistogramBin } from '@brimwatch/api-types';
 import { axisStyle, CHART_HEIGHT, labelAt } from '@/components/sketch/charts/chart-common';
 import { formatCompact, formatCount } from '@/utils/format';
 import { PALETTE } from '@/utils/palette';

@@ -1,7 +1,7 @@
 // Where the forecast sits on the stream-total chart: a dashed continuation
 // from the last reading to the brim at the forecast date, inside a band that
 // fans out to the earliest and latest brim dates.
-import type { SketchDetail } from '@/api/sketch-types';
+import type { SketchDetail } from '@brimwatch/api-types';
 import type { ReadingSeries } from './reading-series';
 
 export interface ForecastShape {

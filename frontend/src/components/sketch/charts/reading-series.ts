@@ -1,6 +1,6 @@
 // Turns the readings API's buckets into the columns the charts draw, with the
 // capacity in force at each point and the miss risk it implies.
-import type { HistoryMarker, SketchDetail, SketchHistory } from '@/api/sketch-types';
+import type { HistoryMarker, SketchDetail, SketchHistory } from '@brimwatch/api-types';
 import { riskFromLoad } from './risk-from-load';
 
 export interface ChartMarker {

@@ -1,7 +1,7 @@
 // What the register/change form holds (text, as typed) and the request body
 // it becomes. Digits may be grouped with spaces, thin spaces or underscores.
 import type { ChangeInput, RegistrationInput } from '@/api/sketches';
-import type { SketchDetail } from '@/api/sketch-types';
+import type { SketchDetail } from '@brimwatch/api-types';
 
 export interface Replica {
   instance: string;
