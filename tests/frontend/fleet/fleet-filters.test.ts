@@ -1,5 +1,7 @@
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
-import { flushPromises, type DOMWrapper } from '@vue/test-utils';
+import { flushPromises, mount, type DOMWrapper } from '@vue/test-utils';
+import { Quasar, QSelect } from 'quasar';
+import FleetFilters from '@/components/fleet/FleetFilters.vue';
 import { DEFAULT_FILTERS, filtersFromQuery, queryFromFilters } from '@/components/fleet/fleet-query';
 import { answerWith, HEALTHY, SIGNED_OUT } from '../fake-server';
 import { mountPage } from '../mount';
@@ -108,5 +110,31 @@ describe('the fleet filters and the address bar', { timeout: 20_000 }, () => {
     } finally {
       vi.useRealTimers();
     }
+  });
+});
+
+describe('the fleet filter dropdowns', () => {
+  it('when a team, a service or a level is chosen, then the change names that list alone, and only services take a typed name', () => {
+    const teams = [{ id: 1, slug: 'payments', name: 'Payments' }];
+    const wrapper = mount(FleetFilters, { props: { filters: DEFAULT_FILTERS, teams, services: ['checkout'] }, global: { plugins: [Quasar] } });
+    const selects = wrapper.findAllComponents(QSelect);
+    expect(selects.map((s) => [s.props('label'), s.props('for')])).toEqual([
+      ['Team', 'fleet-team'],
+      ['Service', 'fleet-service'],
+      ['Level', 'fleet-level'],
+    ]);
+    expect(selects[0].props('options')).toEqual([{ label: 'Payments', value: 'payments' }]);
+    expect(selects[1].props('options')).toEqual(['checkout']);
+    expect((selects[2].props('options') as { value: string }[]).map((o) => o.value)).toEqual(['brimmed', 'unreachable', 'stale', 'watch', 'clear']);
+    expect(selects.map((s) => [s.props('emitValue'), s.props('mapOptions'), s.props('useInput'), s.props('newValueMode') ?? null])).toEqual([
+      [true, true, false, null],
+      [false, false, true, 'add-unique'],
+      [true, true, false, null],
+    ]);
+    selects[0].vm.$emit('update:modelValue', ['payments']);
+    selects[1].vm.$emit('update:modelValue', null);
+    selects[2].vm.$emit('update:modelValue', ['watch']);
+    expect(wrapper.emitted('change')).toEqual([[{ teams: ['payments'] }], [{ services: [] }], [{ levels: ['watch'] }]]);
+    wrapper.unmount();
   });
 });
