@@ -1,9 +1,11 @@
+import quickselect from 'quickselect';
+
 /** Φ⁻¹(0.975): the two-sided 95 % normal quantile used for Sen's interval. */
 export const SEN_INTERVAL_Z = 1.959963984540054;
 
 /**
  * Every pair of points is compared, so the work grows with n²; 400 points make
- * 79,800 slopes, sorted in a few milliseconds, while a year of one-minute
+ * 79,800 slopes, ordered in a few milliseconds, while a year of one-minute
  * readings would make 10¹¹. Thinning evenly keeps the span (first and last
  * point stay) and the trend; the fit's interval widens a little, honestly.
  */
@@ -27,18 +29,47 @@ export interface TheilSenFit {
   pairs: number;
 }
 
-function median(sorted: Float64Array): number {
-  const mid = sorted.length >> 1;
-  return sorted.length % 2 === 1 ? sorted[mid] : (sorted[mid - 1] + sorted[mid]) / 2;
+const ascending = (a: number, b: number) => a - b;
+
+/**
+ * The value that would sit at 0-based `index` if `values` were sorted, found
+ * by selection (Floyd–Rivest, via quickselect) instead of a full sort: a fit
+ * needs only five or six order statistics of its n(n−1)/2 slopes. Each
+ * selection leaves its value in its sorted place with nothing larger before
+ * it and nothing smaller after it, so `settled` (the places found so far)
+ * narrows every later search to the stretch between two of them.
+ */
+function valueAt(values: number[], index: number, settled: number[]): number {
+  let left = 0;
+  let right = values.length - 1;
+  for (const at of settled) {
+    if (at === index) return values[index];
+    if (at < index) left = Math.max(left, at + 1);
+    else right = Math.min(right, at - 1);
+  }
+  quickselect(values, index, left, right, ascending);
+  settled.push(index);
+  return values[index];
 }
 
-/** The value at a 1-based rank, interpolating between neighbours for a fractional rank. */
-export function atRank(sorted: Float64Array, rank: number): number {
-  const clamped = Math.min(sorted.length, Math.max(1, rank));
+/** The median of `values`, which it reorders. */
+function median(values: number[], settled: number[] = []): number {
+  const mid = values.length >> 1;
+  return values.length % 2 === 1 ? valueAt(values, mid, settled) : (valueAt(values, mid - 1, settled) + valueAt(values, mid, settled)) / 2;
+}
+
+/**
+ * The value at a 1-based rank of `values` in ascending order, interpolating
+ * between neighbours for a fractional rank and clamping to the ends. Reorders
+ * `values`; pass the same `settled` to every call on one array.
+ */
+export function atRank(values: number[], rank: number, settled: number[] = []): number {
+  const clamped = Math.min(values.length, Math.max(1, rank));
   const below = Math.floor(clamped);
   const fraction = clamped - below;
-  if (fraction === 0 || below >= sorted.length) return sorted[below - 1];
-  return sorted[below - 1] + fraction * (sorted[below] - sorted[below - 1]);
+  const low = valueAt(values, below - 1, settled);
+  if (fraction === 0 || below >= values.length) return low;
+  return low + fraction * (valueAt(values, below, settled) - low);
 }
 
 /**
@@ -51,26 +82,26 @@ export function atRank(sorted: Float64Array, rank: number): number {
  */
 export function theilSen(xs: ArrayLike<number>, ys: ArrayLike<number>, z: number = SEN_INTERVAL_Z): TheilSenFit | null {
   const n = xs.length;
-  const slopes = new Float64Array((n * (n - 1)) / 2);
-  let count = 0;
+  const slopes: number[] = [];
   for (let i = 0; i < n; i++) {
     for (let j = i + 1; j < n; j++) {
       const dx = xs[j] - xs[i];
-      if (dx !== 0) slopes[count++] = (ys[j] - ys[i]) / dx;
+      if (dx !== 0) slopes.push((ys[j] - ys[i]) / dx);
     }
   }
+  const count = slopes.length;
   if (count === 0) return null;
-  const sorted = slopes.subarray(0, count).sort();
-  const slope = median(sorted);
+  const settled: number[] = [];
+  const slope = median(slopes, settled);
 
   const spread = z * Math.sqrt((n * (n - 1) * (2 * n + 5)) / 18);
-  const residuals = new Float64Array(n);
-  for (let i = 0; i < n; i++) residuals[i] = ys[i] - slope * xs[i];
+  const residuals: number[] = [];
+  for (let i = 0; i < n; i++) residuals.push(ys[i] - slope * xs[i]);
   return {
     slope,
-    slopeLow: atRank(sorted, (count - spread) / 2),
-    slopeHigh: atRank(sorted, (count + spread) / 2 + 1),
-    intercept: median(residuals.sort()),
+    slopeLow: atRank(slopes, (count - spread) / 2, settled),
+    slopeHigh: atRank(slopes, (count + spread) / 2 + 1, settled),
+    intercept: median(residuals),
     pairs: count,
   };
 }

@@ -61,7 +61,23 @@ describe('Theil–Sen slope', () => {
         const sorted = bruteForceSlopes(xs, ys);
         const fit = theilSen(xs, ys);
         if (sorted.length === 0) return fit === null;
-        return fit !== null && Math.abs(fit.slope - bruteForceMedian(sorted)) <= 1e-9 * (1 + Math.abs(fit.slope)) && fit.slopeLow <= fit.slope && fit.slope <= fit.slopeHigh;
+        if (fit === null) return false;
+        // Sen's limits straight from the definition (JASA 63, 1968): fractional ranks of the fully sorted slopes.
+        const n = xs.length;
+        const spread = SEN_INTERVAL_Z * Math.sqrt((n * (n - 1) * (2 * n + 5)) / 18);
+        const atSortedRank = (rank: number) => {
+          const r = Math.min(sorted.length, Math.max(1, rank));
+          const below = Math.floor(r);
+          return below >= sorted.length ? sorted[below - 1] : sorted[below - 1] + (r - below) * (sorted[below] - sorted[below - 1]);
+        };
+        const near = (a: number, b: number) => Math.abs(a - b) <= 1e-9 * (1 + Math.abs(b));
+        return (
+          near(fit.slope, bruteForceMedian(sorted)) &&
+          near(fit.slopeLow, atSortedRank((sorted.length - spread) / 2)) &&
+          near(fit.slopeHigh, atSortedRank((sorted.length + spread) / 2 + 1)) &&
+          fit.slopeLow <= fit.slope &&
+          fit.slope <= fit.slopeHigh
+        );
       }),
       { seed: 1968, numRuns: 300 },
     );
@@ -88,10 +104,20 @@ describe('Theil–Sen slope', () => {
   });
 
   it('when a rank is fractional or out of range, then it interpolates or clamps', () => {
-    const sorted = new Float64Array([10, 20, 30]);
+    const sorted = [10, 20, 30];
     expect(atRank(sorted, 1.25)).toBe(12.5);
     expect(atRank(sorted, 0.2)).toBe(10);
     expect(atRank(sorted, 7)).toBe(30);
+  });
+
+  it('when the values are in no order, then a rank still reads them as if sorted (hand-computed)', () => {
+    // Sorted by hand: 10, 20, 30, 40, 50; rank 2.5 lies halfway between 20 and 30, rank 4 is 40.
+    const values = [50, 10, 40, 30, 20];
+    const settled: number[] = [];
+    expect(atRank(values, 4, settled)).toBe(40);
+    expect(atRank(values, 2.5, settled)).toBe(25);
+    expect(atRank(values, 1, settled)).toBe(10);
+    expect(atRank(values, 5, settled)).toBe(50);
   });
 
   it('when 2,000 points are thinned to 400, then the first and last are kept and the spacing is even', () => {
