@@ -18,7 +18,7 @@ export type Dialect = 'openmetrics' | 'prometheus';
 export type ParsedExposition = { ok: true; samples: Sample[] } | { ok: false; reason: string };
 
 const METRIC_NAME = /^[a-zA-Z_:][a-zA-Z0-9_:]*/;
-const LABEL_NAME = /^[a-zA-Z_][a-zA-Z0-9_]*/;
+const LABEL_NAME_AT = /[a-zA-Z_][a-zA-Z0-9_]*/y;
 const FLOAT = /^[+-]?(?:(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?|inf|infinity|nan)$/i;
 const DESCRIPTORS = new Set(['HELP', 'TYPE', 'UNIT']);
 
@@ -90,38 +90,49 @@ function parseSample(line: string, number: number): Sample {
   return sample;
 }
 
-/** Reads `name="value",…}` from `at`; returns the index just past the closing brace. */
+/** The first index at or after `at` that is neither a space nor a tab. */
+function skipSpaces(line: string, at: number): number {
+  while (line.charCodeAt(at) === 32 || line.charCodeAt(at) === 9) at++;
+  return at;
+}
+
+/**
+ * Reads `name="value",…}` from `at`; returns the index just past the closing
+ * brace. Scanned by index with a sticky pattern and plain runs of the value
+ * copied whole, since every scrape reads dozens of labelled lines.
+ */
 function parseLabels(line: string, at: number, labels: Record<string, string>): number {
-  const skipSpaces = () => {
-    while (line[at] === ' ' || line[at] === '\t') at++;
-  };
   for (;;) {
-    skipSpaces();
+    at = skipSpaces(line, at);
     if (line[at] === '}') return at + 1;
-    const label = line.slice(at).match(LABEL_NAME)?.[0];
+    LABEL_NAME_AT.lastIndex = at;
+    const label = LABEL_NAME_AT.exec(line)?.[0];
     if (!label) throw new LineError(`expected a label name or } at column ${at + 1}`);
     if (label in labels) throw new LineError(`label ${label} appears twice`);
-    at += label.length;
-    skipSpaces();
+    at = skipSpaces(line, at + label.length);
     if (line[at] !== '=') throw new LineError(`expected = after label ${label}`);
-    at++;
-    skipSpaces();
+    at = skipSpaces(line, at + 1);
     if (line[at] !== '"') throw new LineError(`the value of label ${label} must be in double quotes`);
     let value = '';
-    for (at++; line[at] !== '"'; at++) {
-      if (at >= line.length) throw new LineError(`the value of label ${label} is not closed with "`);
-      if (line[at] !== '\\') {
-        value += line[at];
+    for (at++; ; ) {
+      const quote = line.indexOf('"', at);
+      const backslash = line.indexOf('\\', at);
+      if (backslash >= 0 && (quote < 0 || backslash < quote)) {
+        value += line.slice(at, backslash);
+        const escaped = line[backslash + 1];
+        if (escaped === 'n') value += '\n';
+        else if (escaped === '\\' || escaped === '"') value += escaped;
+        else throw new LineError(`label ${label} has an unknown escape \\${escaped ?? ''}; only \\\\, \\" and \\n are allowed`);
+        at = backslash + 2;
         continue;
       }
-      const escaped = line[++at];
-      if (escaped === 'n') value += '\n';
-      else if (escaped === '\\' || escaped === '"') value += escaped;
-      else throw new LineError(`label ${label} has an unknown escape \\${escaped ?? ''}; only \\\\, \\" and \\n are allowed`);
+      if (quote < 0) throw new LineError(`the value of label ${label} is not closed with "`);
+      value += line.slice(at, quote);
+      at = quote;
+      break;
     }
     labels[label] = value;
-    at++;
-    skipSpaces();
+    at = skipSpaces(line, at + 1);
     if (line[at] === ',') at++;
     else if (line[at] !== '}') throw new LineError(`expected , or } after the value of label ${label}`);
   }
