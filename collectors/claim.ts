@@ -55,23 +55,6 @@ export async function claimDueTargets(db: Knex, owner: string, limit: number, ma
   }));
 }
 
-/**
- * Moves finished targets to their next slot and frees their leases, but only
- * where this process still holds the lease: a target whose lease expired and
- * was claimed again elsewhere is not touched. Returns the ids still held.
- */
-export async function completeLeases(trx: Knex, owner: string, next: { targetId: number; nextScrapeAt: Date }[]): Promise<Set<number>> {
-  if (next.length === 0) return new Set();
-  const { rows } = await trx.raw(
-    `update targets t set next_scrape_at = v.next_at, lease_owner = null, lease_expires_at = null
-     from unnest(?::bigint[], ?::timestamptz[]) as v(id, next_at)
-     where t.id = v.id and t.lease_owner = ?
-     returning t.id`,
-    [next.map((n) => n.targetId), next.map((n) => n.nextScrapeAt.toISOString()), owner],
-  );
-  return new Set(rows.map((r: { id: number }) => Number(r.id)));
-}
-
 /** On shutdown: give unfinished targets back at once rather than making them wait for the lease to expire. */
 export async function releaseLeases(db: Knex, owner: string, targetIds: number[]): Promise<number> {
   if (targetIds.length === 0) return 0;

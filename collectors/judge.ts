@@ -18,7 +18,7 @@ export interface SketchTerms {
   leadTimeDays: number;
 }
 
-/** Stored with every good reading (readings.judgement) and as the latest word (target_status.judgement). */
+/** The latest word on a target (target_status.judgement); every good reading keeps its ReadingJudgement. */
 export interface Judgement {
   level: HealthLevel;
   load: number;
@@ -40,6 +40,9 @@ export interface Judgement {
   /** The total the load is worked out from: n itself, or for a windowed sketch the higher of n and the last finished window's peak. */
   judgedTotal: number;
 }
+
+/** What a stored reading keeps of its judgement (readings.judgement): what level timelines, charts and hourly rollups read. */
+export type ReadingJudgement = Pick<Judgement, 'level' | 'load'>;
 
 const DAY_MS = 86_400_000;
 const iso = (ms: number | null) => (ms === null ? null : new Date(ms).toISOString());

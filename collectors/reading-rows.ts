@@ -1,6 +1,6 @@
 import type { HealthLevel, TotalReading } from '../backend/src/maths';
 import type { ClaimedTarget } from './claim';
-import { judgeReading, levelAfterFailure, type Judgement } from './judge';
+import { judgeReading, levelAfterFailure, type Judgement, type ReadingJudgement } from './judge';
 import type { ScrapeOutcome } from './scrape';
 
 /** A scrape that has finished, waiting to be stored. */
@@ -65,11 +65,13 @@ export function readingRows(done: FinishedScrape, previous: PreviousStatus | und
     conservative: s.conservative,
     nonzero_cells: s.nonzeroCells,
   };
-  const stored = JSON.stringify(judgement);
+  // Readers of past readings (level timelines, charts, hourly rollups) want only the level and the load; the whole
+  // judgement is the target's latest word. Keeping the rest out of every reading halves the row.
+  const kept: ReadingJudgement = { level: judgement.level, load: judgement.load };
   return {
     good: true,
     level: judgement.level,
-    reading: { ...base, ok: true, ...figures, is_reset: isReset, is_resize: isResize, judgement: stored },
+    reading: { ...base, ok: true, ...figures, is_reset: isReset, is_resize: isResize, judgement: JSON.stringify(kept) },
     status: {
       target_id: target.targetId,
       sketch_id: target.sketchId,
@@ -79,7 +81,7 @@ export function readingRows(done: FinishedScrape, previous: PreviousStatus | und
       last_error: null,
       failures_in_row: 0,
       ...figures,
-      judgement: stored,
+      judgement: JSON.stringify(judgement),
       level_since: sinceOf(judgement.level),
     },
   };

@@ -12,7 +12,8 @@ export const alertsHookWith = (clock?: Clock): AlertsHook => (trx, judged) => ev
 interface InstanceRow {
   sketch_id: number;
   level: HealthLevel;
-  judgement: Judgement | null;
+  /** What the verdict and the alerts read of an instance's judgement. */
+  judgement: Pick<Judgement, 'load' | 'watchLine'> | null;
 }
 
 /** A sketch is as bad as its worst instance; among equals, the one with the higher load speaks for it. */
@@ -38,7 +39,17 @@ export function sketchVerdicts(instances: InstanceRow[], at: Date): SketchJudged
  */
 export async function rejudgeSketches(trx: Knex.Transaction, sketchIds: number[], hook: AlertsHook, log: (message: string) => void, at = new Date()): Promise<SketchJudged[]> {
   if (sketchIds.length === 0) return [];
-  const instances: InstanceRow[] = await trx('target_status').whereIn('sketch_id', sketchIds).select('sketch_id', 'level', 'judgement');
+  // Only the two figures read, not each whole judgement: a batch re-judges every instance of the sketches it touched.
+  const { rows } = await trx.raw(
+    `select sketch_id, level, judgement is not null as judged, (judgement->>'load')::float8 as load, (judgement->>'watchLine')::float8 as watch_line
+     from target_status where sketch_id = any(?::bigint[])`,
+    [sketchIds],
+  );
+  const instances: InstanceRow[] = rows.map((r: { sketch_id: number; level: HealthLevel; judged: boolean; load: number; watch_line: number }) => ({
+    sketch_id: r.sketch_id,
+    level: r.level,
+    judgement: r.judged ? { load: r.load, watchLine: r.watch_line } : null,
+  }));
   const judged = sketchVerdicts(instances, at);
   try {
     await trx.transaction((savepoint) => hook(savepoint, judged));

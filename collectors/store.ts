@@ -1,6 +1,6 @@
 import type { Knex } from 'knex';
 import type { HealthLevel, TotalReading } from '../backend/src/maths';
-import { completeLeases } from './claim';
+import { writeBatch } from './batch-write';
 import type { HistoryCache } from './history-cache';
 import { loadHistory } from './reading-history';
 import { readingRows, type FinishedScrape, type PreviousStatus, type ReadingRows } from './reading-rows';
@@ -47,16 +47,13 @@ function rowsFor(done: FinishedScrape, previous: PreviousStatus | undefined, his
   }
 }
 
-const STATUS_ON_SUCCESS = ['level', 'taken_at', 'last_ok_at', 'last_error', 'failures_in_row', 'stream_total', 'width', 'depth', 'counter_bytes', 'window_seconds', 'conservative', 'nonzero_cells', 'judgement', 'level_since'];
-const STATUS_ON_FAILURE = ['level', 'taken_at', 'last_error', 'failures_in_row', 'level_since'];
-
 /**
  * Stores a batch of finished scrapes in one transaction: each target moves to
- * its next slot and its lease is freed, its reading is inserted (one
- * multi-row insert), its target_status updated, and every sketch touched is
- * re-judged (worst instance) and handed to the alerts. Either all of it is
- * written or none: a database that goes away mid-batch leaves no half-written
- * reading, and the leases simply expire.
+ * its next slot and its lease is freed, its reading is inserted and its
+ * target_status updated (one statement for the three), and every sketch
+ * touched is re-judged (worst instance) and handed to the alerts. Either all
+ * of it is written or none: a database that goes away mid-batch leaves no
+ * half-written reading, and the leases simply expire.
  */
 export async function storeBatch(db: Knex, batch: FinishedScrape[], settings: StoreSettings): Promise<StoredBatch> {
   if (batch.length === 0) return { stored: 0, leaseConflicts: 0, levels: [] };
@@ -69,21 +66,17 @@ export async function storeBatch(db: Knex, batch: FinishedScrape[], settings: St
     // The next slot is the first after the scrape began, so a late scrape still leaves the following
     // round its own scrape; and at least half an interval after the slot just served, so a new
     // target's first two scrapes are not back to back.
-    const next = batch.map(({ target, takenAt }) => ({
-      targetId: target.targetId,
-      nextScrapeAt: new Date(nextScrapeAt(target.targetId, target.intervalSeconds, Math.max(takenAt.getTime(), target.dueAt.getTime() + target.intervalSeconds * 500))),
-    }));
-    const held = await completeLeases(trx, settings.owner, next);
+    const held = await writeBatch(
+      trx,
+      settings.owner,
+      rows.map(({ done: { target, takenAt }, rows: r }) => ({
+        targetId: target.targetId,
+        nextScrapeAt: new Date(nextScrapeAt(target.targetId, target.intervalSeconds, Math.max(takenAt.getTime(), target.dueAt.getTime() + target.intervalSeconds * 500))),
+        rows: r,
+      })),
+    );
     const kept = rows.filter(({ done }) => held.has(done.target.targetId));
-    if (kept.length > 0) {
-      await trx('readings').insert(kept.map((r) => r.rows.reading));
-      const upsert = async (list: typeof kept, columns: string[]) => {
-        if (list.length > 0) await trx('target_status').insert(list.map((r) => r.rows.status)).onConflict('target_id').merge(columns);
-      };
-      await upsert(kept.filter((r) => r.rows.good), STATUS_ON_SUCCESS);
-      await upsert(kept.filter((r) => !r.rows.good), STATUS_ON_FAILURE);
-      await rejudgeSketches(trx, [...new Set(kept.map((r) => r.done.target.sketchId))], settings.alertsHook, settings.log);
-    }
+    if (kept.length > 0) await rejudgeSketches(trx, [...new Set(kept.map((r) => r.done.target.sketchId))], settings.alertsHook, settings.log);
     return { stored: kept.length, leaseConflicts: batch.length - kept.length, levels: kept.map((r) => r.rows.level) };
   });
   if (settings.historyCache) {

@@ -1,5 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { claimDueTargets, completeLeases, releaseLeases } from '../../collectors/claim';
+import { writeBatch } from '../../collectors/batch-write';
+import { claimDueTargets, releaseLeases } from '../../collectors/claim';
+import { readingRows } from '../../collectors/reading-rows';
 import { nextScrapeAt, scrapeOffsetMs } from '../../collectors/schedule';
 import { createTestDatabase, type TestDatabase } from '../setup/database';
 import { addSketch, makeAllDue } from './fleet-fixture';
@@ -53,9 +55,13 @@ describe('target leases', () => {
     await t.db('targets').where({ id: mine.targetId }).update({ lease_expires_at: t.db.raw("now() - interval '1 second'") });
     const taken = await claimDueTargets(t.db, 'alive', 200, 20);
     expect(taken.map((x) => x.targetId)).toContain(mine.targetId);
-    const next = [{ targetId: mine.targetId, nextScrapeAt: new Date(Date.now() + 30_000) }];
-    expect(await completeLeases(t.db, 'dead', next)).toEqual(new Set());
-    expect(await completeLeases(t.db, 'alive', next)).toEqual(new Set([mine.targetId]));
+    const outcome = { ok: false as const, kind: 'refused' as const, reason: 'connection refused', scrapeMs: 1 };
+    const next = [{ targetId: mine.targetId, nextScrapeAt: new Date(Date.now() + 30_000), rows: readingRows({ target: mine, outcome, takenAt: new Date() }, undefined, []) }];
+    expect(await writeBatch(t.db, 'dead', next)).toEqual(new Set());
+    expect(await t.db('readings').where({ target_id: mine.targetId }).count('* as n').first()).toEqual({ n: 0 });
+    expect(await writeBatch(t.db, 'alive', next)).toEqual(new Set([mine.targetId]));
+    expect(await t.db('readings').where({ target_id: mine.targetId }).count('* as n').first()).toEqual({ n: 1 });
+    expect(await t.db('target_status').where({ target_id: mine.targetId }).first()).toMatchObject({ last_error: 'connection refused', failures_in_row: 1 });
     const row = await t.db('targets').where({ id: mine.targetId }).first();
     expect(row).toMatchObject({ lease_owner: null, lease_expires_at: null });
   });
