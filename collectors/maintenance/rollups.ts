@@ -13,7 +13,7 @@ export async function rollUpHours(db: Knex): Promise<number> {
      )
      insert into reading_rollups_hourly as h
        (target_id, sketch_id, hour, readings, failures, min_stream_total, max_stream_total, max_at,
-        last_stream_total, last_level, max_load, resets, resizes, peak_width, peak_depth, last_width, last_depth)
+        last_stream_total, last_level, max_load, resets, resizes, peak_width, peak_depth, last_width, last_depth, last_nonzero_cells)
      select r.target_id, min(r.sketch_id), date_trunc('hour', r.taken_at), count(*), count(*) filter (where not r.ok),
        min(r.stream_total) filter (where r.ok), max(r.stream_total) filter (where r.ok),
        (array_agg(r.taken_at order by r.stream_total desc, r.taken_at) filter (where r.ok))[1],
@@ -24,7 +24,9 @@ export async function rollUpHours(db: Knex): Promise<number> {
        (array_agg(r.width order by r.stream_total desc, r.taken_at) filter (where r.ok))[1],
        (array_agg(r.depth order by r.stream_total desc, r.taken_at) filter (where r.ok))[1],
        (array_agg(r.width order by r.taken_at desc) filter (where r.ok))[1],
-       (array_agg(r.depth order by r.taken_at desc) filter (where r.ok))[1]
+       (array_agg(r.depth order by r.taken_at desc) filter (where r.ok))[1],
+       -- As text: array_agg of arrays needs them all one length, and a resize can change the depth within the hour.
+       ((array_agg(r.nonzero_cells::text order by r.taken_at desc) filter (where r.ok))[1])::integer[]
      from readings r, since
      where r.taken_at >= since.at
      group by r.target_id, date_trunc('hour', r.taken_at)
@@ -32,7 +34,8 @@ export async function rollUpHours(db: Knex): Promise<number> {
        readings = excluded.readings, failures = excluded.failures, min_stream_total = excluded.min_stream_total,
        max_stream_total = excluded.max_stream_total, max_at = excluded.max_at, last_stream_total = excluded.last_stream_total,
        last_level = excluded.last_level, max_load = excluded.max_load, resets = excluded.resets, resizes = excluded.resizes,
-       peak_width = excluded.peak_width, peak_depth = excluded.peak_depth, last_width = excluded.last_width, last_depth = excluded.last_depth
+       peak_width = excluded.peak_width, peak_depth = excluded.peak_depth, last_width = excluded.last_width, last_depth = excluded.last_depth,
+       last_nonzero_cells = excluded.last_nonzero_cells
      returning 1`,
   );
   return rows.length;

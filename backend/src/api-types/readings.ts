@@ -9,6 +9,11 @@ export interface HistoryPoint {
   loadMax: number | null;
   /** Level of the bucket's last reading ('unreachable' for a failed one). */
   level: string | null;
+  /**
+   * Share of non-zero cells in each row (row 0 first) at the bucket's last good
+   * reading — of whichever instance reported last, unless one instance is asked for.
+   */
+  occupancy: number[] | null;
   readings: number;
   failures: number;
 }

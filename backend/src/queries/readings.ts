@@ -7,6 +7,9 @@ export interface BucketRow {
   total_last: number | null;
   load_max: number | null;
   level_last: string | null;
+  /** Width and non-zero cells per row of the bucket's last good reading, for the occupancy chart. */
+  width_last: number | null;
+  cells_last: number[] | null;
   readings: number;
   failures: number;
   last_at: Date;
@@ -47,8 +50,8 @@ export interface BudgetOfSketch {
  * of 30-second readings moves `points` rows, not hundreds of thousands. Each
  * bucket is one range scan of a covering index (no table rows, no sort): the
  * extremes (min/max stream total, max load — the peaks a chart must not lose)
- * come from it, then the last good total and the last level from one lookup
- * each. Load is n / (m·E·δ^(1/k)) (DESIGN.md) against the sketch's current
+ * come from it, then the last good reading (total, width, non-zero cells) and
+ * the last level from one lookup each. Load is n / (m·E·δ^(1/k)) (DESIGN.md) against the sketch's current
  * budget, worked out from the indexed columns rather than each stored judgement.
  * Only readings taken from `since` on count (where the hourly rollups hand
  * over); the bounds are repeated as plain conditions so PostgreSQL leaves the
@@ -60,7 +63,7 @@ export async function bucketedReadings(db: Db, q: RangeQuery, budget: BudgetOfSk
   const target = `${bounds} ${q.targetId === undefined ? '' : 'and r.target_id = ?'}`;
   const t = [since, edges[q.points], ...(q.targetId === undefined ? [] : [q.targetId])];
   const sql = `
-    select b.n - 1 + ? as bucket, agg.*, good.stream_total as total_last, latest.level as level_last
+    select b.n - 1 + ? as bucket, agg.*, good.stream_total as total_last, good.width as width_last, good.nonzero_cells as cells_last, latest.level as level_last
     from unnest(?::timestamptz[], ?::timestamptz[]) with ordinality as b(lo, hi, n)
     cross join lateral (
       select min(stream_total) as total_min, max(stream_total) as total_max,
@@ -71,7 +74,7 @@ export async function bucketedReadings(db: Db, q: RangeQuery, budget: BudgetOfSk
       where r.sketch_id = ? and r.taken_at >= b.lo and r.taken_at < b.hi ${target}
     ) agg
     left join lateral (
-      select r.stream_total from readings r
+      select r.stream_total, r.width, r.nonzero_cells from readings r
       where r.sketch_id = ? and r.taken_at = agg.last_ok_at and r.ok ${target}
       limit 1
     ) good on true

@@ -31,7 +31,8 @@ export async function bucketedRollups(db: Db, q: RangeQuery, budget: BudgetOfSke
   const target = q.targetId === undefined ? '' : 'and h.target_id = ?';
   const t = q.targetId === undefined ? [] : [q.targetId];
   const { rows } = await db.raw(
-    `select b.n - 1 + ? as bucket, agg.*, latest.last_stream_total as total_last, latest.level as level_last
+    `select b.n - 1 + ? as bucket, agg.*, latest.last_stream_total as total_last, latest.level as level_last,
+            latest.last_width as width_last, latest.last_nonzero_cells as cells_last
      from unnest(?::timestamptz[], ?::timestamptz[]) with ordinality as b(lo, hi, n)
      cross join lateral (
        select min(h.min_stream_total) as total_min, max(h.max_stream_total) as total_max,
@@ -41,7 +42,8 @@ export async function bucketedRollups(db: Db, q: RangeQuery, budget: BudgetOfSke
        where h.sketch_id = ? and h.hour >= b.lo and h.hour < b.hi and h.hour < ? ${target}
      ) agg
      left join lateral (
-       select h.last_stream_total, case when h.failures = h.readings then 'unreachable' else h.last_level end as level
+       select h.last_stream_total, h.last_width, h.last_nonzero_cells,
+              case when h.failures = h.readings then 'unreachable' else h.last_level end as level
        from reading_rollups_hourly h
        where h.sketch_id = ? and h.hour = agg.last_at ${target}
        order by h.last_stream_total desc nulls last limit 1

@@ -82,7 +82,9 @@ describe('a long-range chart drawn from the hourly rollups and the latest raw re
   const readings = Array.from({ length: (HOURS * HOUR) / STEP }, (_, i) => {
     const t = FROM + i * STEP;
     const ok = t !== FROM + 5 * HOUR;
-    return { t, ok, total: ok ? (t < RESET_AT ? 100 * i : 7 * i) : null, width: t < RESIZED_AT ? 272 : 544, isResize: t === RESIZED_AT, isReset: t === RESET_AT };
+    const width = t < RESIZED_AT ? 272 : 544;
+    const cells = [0, 1, 2, 3, 4].map((row) => (i * 3 + row * 17) % width);
+    return { t, ok, total: ok ? (t < RESET_AT ? 100 * i : 7 * i) : null, width, cells, isResize: t === RESIZED_AT, isReset: t === RESET_AT };
   });
   const rowOf = (targetId: number, r: (typeof readings)[number]) => ({
     target_id: targetId,
@@ -94,6 +96,7 @@ describe('a long-range chart drawn from the hourly rollups and the latest raw re
     width: r.ok ? r.width : null,
     depth: r.ok ? 5 : null,
     counter_bytes: r.ok ? 4 : null,
+    nonzero_cells: r.ok ? r.cells : null,
     is_reset: r.isReset,
     is_resize: r.isResize,
     judgement: r.ok ? JSON.stringify(judgementOf({ width: r.width, depth: 5, streamTotal: r.total!, errorBudget: 100, confidence: 0.99 })) : null,
@@ -131,6 +134,8 @@ describe('a long-range chart drawn from the hourly rollups and the latest raw re
       expect(point.totalMin, `bucket ${n}`).toBe(Math.min(...good.map((r) => r.total!)));
       expect(point.totalMax, `bucket ${n}`).toBe(Math.max(...good.map((r) => r.total!)));
       expect(point.totalLast, `bucket ${n}`).toBe(good.at(-1)!.total);
+      // Occupancy: the share of non-zero cells per row at the bucket's last good reading.
+      expect(point.occupancy, `bucket ${n}`).toEqual(good.at(-1)!.cells.map((c) => c / good.at(-1)!.width));
       // Load n / (m·E·δ^(1/k)): capacity m·E·δ^(1/k) from the count-min bound (Cormode & Muthukrishnan 2005), as DESIGN.md defines it, with E = 50 now.
       const loads = good.map((r) => r.total! / (r.width * 50 * Math.pow(0.01, 1 / 5)));
       expect(point.loadMax, `bucket ${n}`).toBeCloseTo(Math.max(...loads), 9);

@@ -16,7 +16,7 @@ function history(points: [number, number | null, number | null][], markers: Sket
     from: iso(T0),
     to: iso(T0 + 24 * HOUR),
     bucketSeconds: 3600,
-    points: points.map(([hour, total, load]) => ({ t: iso(T0 + hour * HOUR), totalMin: total, totalMax: total, totalLast: total, loadMax: load, level: 'clear', readings: 1, failures: 0 })),
+    points: points.map(([hour, total, load]) => ({ t: iso(T0 + hour * HOUR), totalMin: total, totalMax: total, totalLast: total, loadMax: load, level: 'clear', occupancy: null, readings: 1, failures: 0 })),
     markers,
   };
 }
