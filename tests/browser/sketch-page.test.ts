@@ -93,7 +93,24 @@ describe('the Sketch page in a real browser', () => {
     await page.locator('[data-chart=total] canvas').waitFor();
     const instances = page.locator('section[aria-label=Instances] tbody');
     expect(await instances.innerText()).toMatch(/suggest-1[\s\S]*suggest-2/);
+    // Two replicas fill their own rows: occupancy over time waits for one to be chosen.
+    await page.getByText('choose one above to see its rows').waitFor();
     await stack.shot(page, 'sketch-resized');
+
+    const [one] = await Promise.all([
+      page.waitForRequest((r) => r.url().includes(`/api/v1/sketches/${ids.resized}/readings`) && r.url().includes('instance=suggest-2')),
+      (async () => {
+        await page.getByRole('combobox', { name: 'Instance' }).click();
+        await page.getByRole('option', { name: 'suggest-2' }).click();
+      })(),
+    ]);
+    expect(new URL(one.url()).searchParams.get('instance')).toBe('suggest-2');
+    await page.locator('[data-chart=occupancy] canvas').waitFor();
+    const ink = await inkOf(page, '[data-chart=occupancy]', [TEAL, BRASS]);
+    expect(ink.near[TEAL], 'occupancy: teal row pixels').toBeGreaterThan(200);
+    expect(ink.near[BRASS], 'occupancy: brass "full" line pixels').toBeGreaterThan(100);
+    await page.locator('[data-chart=occupancy]').scrollIntoViewIfNeeded();
+    await stack.shot(page, 'sketch-resized-one-instance');
   });
 
   it('when replicas restart, then the page lists each with its own figures and the restarts are marked', async () => {

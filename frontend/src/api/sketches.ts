@@ -27,9 +27,10 @@ export function fetchSketch(id: number, signal?: AbortSignal): Promise<SketchDet
   return get<SketchDetail>(`/api/v1/sketches/${id}`, { signal });
 }
 
-export function fetchReadings(id: number, range: { from: Date; to: Date; points: number }, signal?: AbortSignal): Promise<SketchHistory> {
+/** The sketch's readings over a range, bucketed on the server; `instance` narrows them to one replica. */
+export function fetchReadings(id: number, range: { from: Date; to: Date; points: number; instance?: string | null }, signal?: AbortSignal): Promise<SketchHistory> {
   return get<SketchHistory>(`/api/v1/sketches/${id}/readings`, {
-    query: { from: range.from.toISOString(), to: range.to.toISOString(), points: range.points },
+    query: { from: range.from.toISOString(), to: range.to.toISOString(), points: range.points, ...(range.instance ? { instance: range.instance } : {}) },
     signal,
   });
 }

@@ -1,5 +1,6 @@
 // One sketch: its settings and latest figures, and its readings over the
-// chosen range. Loading another sketch or range drops the answer of the last.
+// chosen range, of all its instances or of one. Loading another sketch, range
+// or instance drops the answer of the last.
 import { defineStore } from 'pinia';
 import { ref, shallowRef } from 'vue';
 import { fetchReadings, fetchSketch } from '@/api/sketches';
@@ -24,6 +25,8 @@ export const useSketchStore = defineStore('sketch', () => {
   const detail = shallowRef<SketchDetail | null>(null);
   const history = shallowRef<SketchHistory | null>(null);
   const range = ref<RangeKey>(DEFAULT_RANGE);
+  /** The one instance the charts show, or null for all of them. */
+  const instance = ref<string | null>(null);
   const loading = ref(false);
   const historyLoading = ref(false);
   const error = shallowRef<ApiError | null>(null);
@@ -37,6 +40,7 @@ export const useSketchStore = defineStore('sketch', () => {
     if (id.value !== sketchId) {
       detail.value = null;
       history.value = null;
+      instance.value = null;
     }
     id.value = sketchId;
     loading.value = true;
@@ -59,7 +63,7 @@ export const useSketchStore = defineStore('sketch', () => {
     const from = new Date(to.getTime() - hours * 3_600_000);
     historyLoading.value = true;
     try {
-      history.value = await fetchReadings(id.value, { from, to, points: CHART_POINTS }, call.signal);
+      history.value = await fetchReadings(id.value, { from, to, points: CHART_POINTS, instance: instance.value }, call.signal);
       historyError.value = null;
     } catch (cause) {
       if (!call.signal.aborted) historyError.value = toApiError(cause);
@@ -78,10 +82,15 @@ export const useSketchStore = defineStore('sketch', () => {
     return loadHistory();
   }
 
+  function chooseInstance(next: string | null): Promise<void> {
+    instance.value = next;
+    return loadHistory();
+  }
+
   /** After a change is saved, the answer is the new detail. */
   function replaceDetail(next: SketchDetail): void {
     detail.value = next;
   }
 
-  return { id, detail, history, range, loading, historyLoading, error, historyError, open, loadDetail, loadHistory, chooseRange, replaceDetail };
+  return { id, detail, history, range, instance, loading, historyLoading, error, historyError, open, loadDetail, loadHistory, chooseRange, chooseInstance, replaceDetail };
 });

@@ -81,3 +81,21 @@ describe('the chart columns from the readings', () => {
     expect(forecastShape({ brimDate: iso(T0), brimEarliest: null, brimLatest: null, capacity: 1_000_000, load: 1.2 }, series)).toBeNull();
   });
 });
+
+describe('row occupancy as chart columns', () => {
+  it('when a sketch is resized from 2 rows to 3, then each row is a column in percent and the new row starts at the resize', () => {
+    const h = history([
+      [0, 100, 0.1],
+      [1, 200, 0.2],
+      [2, 300, 0.3],
+    ]);
+    h.points[0].occupancy = [0.25, 0.5];
+    h.points[1].occupancy = null;
+    h.points[2].occupancy = [0.1, 0.2, 0.3];
+    const s = readingSeries(h, { confidence: 0.99, depth: 3, capacity: 1000 });
+    expect(s.occupancyPercents).toHaveLength(3);
+    expect(s.occupancyPercents[0]).toEqual([25, null, 10]);
+    expect(s.occupancyPercents[1]).toEqual([50, null, 20]);
+    expect(s.occupancyPercents[2]).toEqual([null, null, 30]);
+  });
+});

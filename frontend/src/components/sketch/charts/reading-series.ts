@@ -17,6 +17,8 @@ export interface ReadingSeries {
   capacities: (number | null)[];
   loadPercents: (number | null)[];
   risks: (number | null)[];
+  /** One column per row (row 0 first): its occupancy in percent at each point, null where a point has none or fewer rows. */
+  occupancyPercents: (number | null)[][];
   markers: ChartMarker[];
   fromX: number;
   toX: number;
@@ -55,9 +57,16 @@ export function readingSeries(history: SketchHistory, detail: Pick<SketchDetail,
     capacities: capacities.map((c) => c ?? firstKnown),
     loadPercents: history.points.map((p) => (p.loadMax === null ? null : p.loadMax * 100)),
     risks: history.points.map((p, i) => riskFromLoad(p.loadMax, delta, depthAt(xs[i], resizes, detail.depth) ?? 0)),
+    occupancyPercents: occupancyColumns(history),
     markers: history.markers.map((m) => ({ x: seconds(m.t), kind: m.kind, label: markerLabel(m) })),
     fromX: seconds(history.from),
     toX: seconds(history.to),
     depthUnknownBefore: resizes.length ? seconds(resizes[0].t) : null,
   };
+}
+
+/** Rows as columns: as many as the deepest point has, so a resize to more rows starts new lines there. */
+function occupancyColumns(history: SketchHistory): (number | null)[][] {
+  const depth = Math.max(0, ...history.points.map((p) => p.occupancy?.length ?? 0));
+  return Array.from({ length: depth }, (_, row) => history.points.map((p) => (p.occupancy && row < p.occupancy.length ? p.occupancy[row] * 100 : null)));
 }
