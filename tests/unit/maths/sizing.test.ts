@@ -98,7 +98,8 @@ describe('plan', () => {
 describe('ceilIgnoringNoise', () => {
   it('when a value is a whole number plus float noise, then it is that whole number', () => {
     expect(ceilIgnoringNoise(4.0000000001)).toBe(4);
-    expect(ceilIgnoringNoise(271.99999999999997)).toBe(272);
+    // The double just below 272 (one unit in the last place there is 2^-44).
+    expect(ceilIgnoringNoise(272 - 2 ** -44)).toBe(272);
   });
 
   it('when a value is meaningfully above a whole number, then it rounds up', () => {
