@@ -1,9 +1,13 @@
 import type { Db } from '../db';
 import type { BucketRow, BudgetOfSketch, MarkerRow, RangeQuery } from './readings';
 
-/** When the oldest raw reading of the sketch (or instance) was taken; older hours survive only as hourly rollups. */
-export async function oldestRawReading(db: Db, sketchId: number, targetId?: number): Promise<Date | null> {
-  const query = db('readings').where({ sketch_id: sketchId }).min({ oldest: 'taken_at' });
+/**
+ * When the oldest raw reading of the sketch (or instance) within the range was
+ * taken; hours before it survive only as hourly rollups. Bounded by the range,
+ * so PostgreSQL plans only the day partitions the range covers.
+ */
+export async function oldestRawReading(db: Db, sketchId: number, from: Date, to: Date, targetId?: number): Promise<Date | null> {
+  const query = db('readings').where({ sketch_id: sketchId }).whereBetween('taken_at', [from, to]).min({ oldest: 'taken_at' });
   if (targetId !== undefined) query.where({ target_id: targetId });
   const [row] = await query;
   return row?.oldest ? new Date(row.oldest) : null;

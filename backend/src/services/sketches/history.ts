@@ -90,11 +90,12 @@ async function hoursThenReadings(db: Db, range: RangeQuery, budget: BudgetOfSket
 
 /**
  * Buckets shorter than an hour, from the raw readings; raw readings are dropped
- * after RAW_RETENTION_DAYS, so buckets wholly before the oldest one come from
- * the hourly rollups.
+ * after RAW_RETENTION_DAYS, so buckets wholly before the oldest one in the range
+ * come from the hourly rollups (which have nothing either where collection had
+ * not begun or had a gap).
  */
 async function readingsAfterHours(db: Db, range: RangeQuery, budget: BudgetOfSketch, edges: string[]): Promise<Bucketed> {
-  const oldest = await oldestRawReading(db, range.sketchId, range.targetId);
+  const oldest = await oldestRawReading(db, range.sketchId, range.from, range.to, range.targetId);
   const endAfterOldest = oldest === null ? -1 : edges.findIndex((edge, i) => i > 0 && new Date(edge) > oldest);
   const firstRaw = endAfterOldest === -1 ? range.points : endAfterOldest - 1;
   const rawFrom = new Date(edges[firstRaw] ?? range.to);
