@@ -5,7 +5,10 @@ import { createCollectorLoop } from '../../collectors/loop';
 import { createCollectorMetrics } from '../../collectors/metrics';
 import { alertsHookWith } from '../../collectors/sketch-level';
 import { doneCount, makeDue } from './collection-fleet';
+import type { CpuSplit } from './cpu-time';
 import type { BenchRow } from './report';
+
+type CpuMeter = { start(): () => CpuSplit };
 
 /** One GET with a fresh connection and the whole body read, as the collector's fetch does it (agent: false). */
 function bareGet(url: string): Promise<number> {
@@ -22,14 +25,16 @@ function bareGet(url: string): Promise<number> {
 }
 
 /** The baseline: a bare fetch loop over the same URLs with `concurrency` requests at once. Returns targets per second. */
-export async function bareFetchRate(urls: string[], concurrency: number): Promise<number> {
+export async function bareFetchRate(urls: string[], concurrency: number, meter?: CpuMeter): Promise<{ rate: number; cpu?: CpuSplit }> {
   let next = 0;
+  const stopMeter = meter?.start();
   const started = performance.now();
   const worker = async () => {
     while (next < urls.length) await bareGet(urls[next++]);
   };
   await Promise.all(Array.from({ length: concurrency }, worker));
-  return urls.length / ((performance.now() - started) / 1000);
+  const rate = urls.length / ((performance.now() - started) / 1000);
+  return { rate, cpu: stopMeter?.() };
 }
 
 /**
@@ -40,7 +45,7 @@ export async function bareFetchRate(urls: string[], concurrency: number): Promis
  * history cache); the second is the figure, timed from making the targets due
  * until the last one is stored. Returns both rounds' targets per second.
  */
-export async function pipelineRate(url: string, targetIds: number[], count: number): Promise<{ warm: number; cold: number }> {
+export async function pipelineRate(url: string, targetIds: number[], count: number, meter?: CpuMeter): Promise<{ warm: number; cold: number; cpu?: CpuSplit }> {
   const config = loadConfig({ DATABASE_URL: url });
   const db = createDb(url, { max: 6 });
   const watcher = createDb(url, { max: 1 });
@@ -54,19 +59,24 @@ export async function pipelineRate(url: string, targetIds: number[], count: numb
     store: { owner: 'bench-collector', historyReadings: config.COLLECTOR_HISTORY_READINGS, alertsHook: alertsHookWith(), log: (m) => console.log(`  [collector] ${m}`) },
     metrics: createCollectorMetrics(db),
   });
-  const round = async () => {
+  let cpu: CpuSplit | undefined;
+  const round = async (measured: boolean) => {
     await makeDue(db, targetIds, count);
+    const stopMeter = measured ? meter?.start() : undefined;
     const started = performance.now();
     while ((await doneCount(watcher)) < count) {
       if (performance.now() - started > 120_000) throw new Error(`the pipeline stored fewer than ${count} targets in 120 s`);
       await new Promise((r) => setTimeout(r, 20));
     }
-    return (performance.now() - started) / 1000;
+    const seconds = (performance.now() - started) / 1000;
+    cpu = stopMeter?.() ?? cpu;
+    return seconds;
   };
   loop.start();
   try {
-    const cold = count / (await round());
-    return { cold, warm: count / (await round()) };
+    const cold = count / (await round(false));
+    const warm = count / (await round(true));
+    return { cold, warm, cpu };
   } finally {
     await loop.stop(1000);
     await watcher.destroy();
@@ -74,7 +84,14 @@ export async function pipelineRate(url: string, targetIds: number[], count: numb
   }
 }
 
-export async function collectionRows(url: string, fleetUrl: (t: number) => string, targetIds: number[], sizes: number[]): Promise<BenchRow[]> {
+/** Milliseconds of CPU per target, by part, e.g. "collector 0.52 + PostgreSQL 0.31 + simulated fleet 0.18 = 1.01 ms". */
+function cpuPerTarget(cpu: CpuSplit | undefined, n: number, own: string): string {
+  if (!cpu) return 'not measured';
+  const ms = (s: number) => ((s * 1000) / n).toFixed(2);
+  return `${own} ${ms(cpu.own)} + PostgreSQL ${ms(cpu.postgres)} + simulated fleet ${ms(cpu.fleet)} = ${ms(cpu.own + cpu.postgres + cpu.fleet)} ms`;
+}
+
+export async function collectionRows(url: string, fleetUrl: (t: number) => string, targetIds: number[], sizes: number[], meter?: CpuMeter): Promise<BenchRow[]> {
   const concurrency = loadConfig({}).COLLECTOR_CONCURRENCY;
   // Warms the simulated fleet and both code paths once, unmeasured.
   await bareFetchRate(Array.from({ length: 500 }, (_, t) => fleetUrl(t)), concurrency);
@@ -82,9 +99,9 @@ export async function collectionRows(url: string, fleetUrl: (t: number) => strin
   for (const n of sizes) {
     const urls = Array.from({ length: n }, (_, t) => fleetUrl(t));
     // The baseline before and after the pipeline, averaged: the machine's other load moves both alike.
-    const before = await bareFetchRate(urls, concurrency);
-    const { warm: pipeline, cold } = await pipelineRate(url, targetIds, n);
-    const bare = (before + (await bareFetchRate(urls, concurrency))) / 2;
+    const before = await bareFetchRate(urls, concurrency, meter);
+    const { warm: pipeline, cold, cpu } = await pipelineRate(url, targetIds, n, meter);
+    const bare = (before.rate + (await bareFetchRate(urls, concurrency)).rate) / 2;
     const ratio = pipeline / bare;
     rows.push({
       figure: `collection, ${n.toLocaleString('en-GB')} targets`,
@@ -95,7 +112,9 @@ export async function collectionRows(url: string, fleetUrl: (t: number) => strin
       ratio,
       goal: '≥ 0.5× bare and ≥ 1,000/s',
       met: ratio >= 0.5 && pipeline >= 1000,
-      note: `a running collector's round; its first round after start (cold code, empty history cache, alerts opening) ran at ${Math.round(cold)} targets/s`,
+      note:
+        `a running collector's round; its first round after start (cold code, empty history cache, alerts opening) ran at ${Math.round(cold)} targets/s. ` +
+        `CPU per target — bare loop: ${cpuPerTarget(before.cpu, n, 'loop')}; pipeline: ${cpuPerTarget(cpu, n, 'collector')}`,
     });
   }
   return rows;

@@ -3,6 +3,8 @@ import path from 'node:path';
 
 export interface SimulatedFleet {
   port: number;
+  /** The fleet's process, whose CPU time the collection figures account for. */
+  pid: number;
   url(target: number): string;
   stop(): Promise<void>;
 }
@@ -24,6 +26,7 @@ export async function startSimulatedFleet(root: string): Promise<SimulatedFleet>
   });
   return {
     port,
+    pid: child.pid!,
     url: (target) => `http://127.0.0.1:${port}/t/${target}`,
     async stop() {
       if (child.exitCode !== null) return;

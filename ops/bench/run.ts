@@ -4,6 +4,7 @@ import { fileURLToPath } from 'node:url';
 import { BENCH_DIRS, openBenchCluster } from './bench-db';
 import { loadCollectionFleet } from './collection-fleet';
 import { collectionRows } from './collection';
+import { cpuMeter, postmasterPid } from './cpu-time';
 import { storageRows } from './storage';
 import { loadFleetForApi } from './fleet-api-data';
 import { fleetApiRows } from './fleet-api';
@@ -48,7 +49,8 @@ try {
     const { targetIds } = await loadCollectionFleet(collect.db, fleet.port, 5000);
     if (wants('collection')) {
       step('collection');
-      rows.push(...(await collectionRows(collect.url, fleet.url, targetIds, [1000, 5000])));
+      const meter = cpuMeter({ fleet: fleet.pid, postmaster: postmasterPid(pg.cluster.dir) });
+      rows.push(...(await collectionRows(collect.url, fleet.url, targetIds, [1000, 5000], meter)));
     }
     if (wants('storage')) {
       step('storage');
