@@ -1,6 +1,7 @@
 import type { Knex } from 'knex';
 import type { AlertState, LastNotice, NoticeKind } from './notify-decision';
 import type { AlertLevel } from '../api-types';
+import type { SketchPlace } from './quiet-spans';
 
 export type Q = Knex | Knex.Transaction;
 
@@ -46,13 +47,15 @@ export function alertFromRow(r: Row): AlertRecord {
 }
 
 /**
- * Serialises the alert work of one sketch across collector processes: two
+ * Serialises the alert work of one sketch across collector processes (two
  * rounds judging instances of the same sketch would otherwise both open an
- * alert. NO KEY UPDATE leaves inserts that reference the sketch unblocked.
+ * alert) and reads where the sketch sits and its watch line in the same round
+ * trip; null when the sketch was deleted since it was judged. NO KEY UPDATE
+ * leaves inserts that reference the sketch unblocked.
  */
-export async function lockSketch(trx: Knex.Transaction, sketchId: number): Promise<boolean> {
-  const row = await trx('sketches').where({ id: sketchId }).forNoKeyUpdate().first('id');
-  return row !== undefined;
+export async function lockSketchPlace(trx: Knex.Transaction, sketchId: number): Promise<(SketchPlace & { watchLine: number }) | null> {
+  const row = await trx('sketches').where({ id: sketchId }).forNoKeyUpdate().first('id', 'service_id', 'team_id', 'watch_line');
+  return row ? { sketchId: Number(row.id), serviceId: Number(row.service_id), teamId: Number(row.team_id), watchLine: Number(row.watch_line) } : null;
 }
 
 export async function liveAlertOf(trx: Q, sketchId: number): Promise<AlertRecord | null> {

@@ -1,12 +1,11 @@
 import type { Knex } from 'knex';
 import type { HealthLevel } from '../maths/health-levels';
-import { alertById, insertAlert, liveAlertOf, lockSketch, updateAlert, type AlertRecord } from './alert-store';
+import { alertById, insertAlert, liveAlertOf, lockSketchPlace, updateAlert, type AlertRecord } from './alert-store';
 import { recordAlertEvent } from './alert-events';
 import { stepAlert, type SketchObservation } from './alert-step';
 import { systemClock, type Clock } from './clock';
 import { formatLoad, formatWhen } from './email/figures';
 import { sendNoticeIfDue } from './notice';
-import { placeOf } from './quiet-spans';
 import { defaultAlertSettings, type AlertSettings } from './settings';
 
 /** One sketch as the collector just judged it: its level (worst instance) and that judgement (null without a good reading). */
@@ -46,14 +45,12 @@ export async function evaluateSketchAlerts(
 
 async function evaluateOne(trx: Knex.Transaction, item: SketchJudged, now: Date, settings: AlertSettings): Promise<void> {
   const sketchId = Number(item.sketchId);
-  if (!(await lockSketch(trx, sketchId))) return; // deleted since it was read: its alerts went with it
-  const place = await placeOf(trx, sketchId);
-  const sketch = await trx('sketches').where({ id: sketchId }).first('watch_line');
-  if (!place || !sketch) return;
+  const place = await lockSketchPlace(trx, sketchId);
+  if (!place) return; // deleted since it was read: its alerts went with it
   const obs: SketchObservation = {
     level: item.level,
     load: typeof item.judgement?.load === 'number' ? item.judgement.load : null,
-    watchLine: item.judgement?.watchLine ?? sketch.watch_line,
+    watchLine: item.judgement?.watchLine ?? place.watchLine,
     at: new Date(item.at),
   };
   const alert = await applyStep(trx, sketchId, await liveAlertOf(trx, sketchId), obs, settings);
