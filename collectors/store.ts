@@ -47,21 +47,34 @@ function rowsFor(done: FinishedScrape, previous: PreviousStatus | undefined, his
   }
 }
 
+/** A batch of finished scrapes judged and turned into rows, waiting for the batch writer. */
+export interface JudgedBatch {
+  rows: { done: FinishedScrape; rows: ReadingRows }[];
+  history: Map<number, TotalReading[]>;
+}
+
 /**
- * Stores a batch of finished scrapes in one transaction: each target moves to
- * its next slot and its lease is freed, its reading is inserted and its
- * target_status updated (one statement for the three), and every sketch
+ * The first stage of storing: reads each target's latest word and forecast
+ * history (from this process's cache where it holds), judges every scrape
+ * (reset, resize, level, forecast) and builds its rows. Reads only.
+ */
+export async function judgeBatch(db: Knex, batch: FinishedScrape[], settings: StoreSettings): Promise<JudgedBatch> {
+  const previous = await previousStatuses(db, batch.map((d) => d.target.targetId));
+  const history = await historyOf(db, batch, previous, settings);
+  return { history, rows: batch.map((done) => ({ done, rows: rowsFor(done, previous.get(done.target.targetId), history, settings.log) })) };
+}
+
+/**
+ * The batch writer: stores a judged batch in one transaction. Each target
+ * moves to its next slot and its lease is freed, its reading is inserted and
+ * its target_status updated (one statement for the three), and every sketch
  * touched is re-judged (worst instance) and handed to the alerts. Either all
  * of it is written or none: a database that goes away mid-batch leaves no
  * half-written reading, and the leases simply expire.
  */
-export async function storeBatch(db: Knex, batch: FinishedScrape[], settings: StoreSettings): Promise<StoredBatch> {
-  if (batch.length === 0) return { stored: 0, leaseConflicts: 0, levels: [] };
-  const ids = batch.map((d) => d.target.targetId);
-  const previous = await previousStatuses(db, ids);
-  const history = await historyOf(db, batch, previous, settings);
-  const rows = batch.map((done) => ({ done, rows: rowsFor(done, previous.get(done.target.targetId), history, settings.log) }));
-
+export async function writeJudged(db: Knex, judged: JudgedBatch, settings: StoreSettings): Promise<StoredBatch> {
+  const { rows, history } = judged;
+  if (rows.length === 0) return { stored: 0, leaseConflicts: 0, levels: [] };
   const stored = await db.transaction(async (trx) => {
     // The next slot is the first after the scrape began, so a late scrape still leaves the following
     // round its own scrape; and at least half an interval after the slot just served, so a new
@@ -77,7 +90,7 @@ export async function storeBatch(db: Knex, batch: FinishedScrape[], settings: St
     );
     const kept = rows.filter(({ done }) => held.has(done.target.targetId));
     if (kept.length > 0) await rejudgeSketches(trx, [...new Set(kept.map((r) => r.done.target.sketchId))], settings.alertsHook, settings.log);
-    return { stored: kept.length, leaseConflicts: batch.length - kept.length, levels: kept.map((r) => r.rows.level) };
+    return { stored: kept.length, leaseConflicts: rows.length - kept.length, levels: kept.map((r) => r.rows.level) };
   });
   if (settings.historyCache) {
     for (const { done, rows: r } of rows) {
@@ -87,6 +100,12 @@ export async function storeBatch(db: Knex, batch: FinishedScrape[], settings: St
     }
   }
   return stored;
+}
+
+/** Judges a batch of finished scrapes and writes it: what the collector loop does with each batch. */
+export async function storeBatch(db: Knex, batch: FinishedScrape[], settings: StoreSettings): Promise<StoredBatch> {
+  if (batch.length === 0) return { stored: 0, leaseConflicts: 0, levels: [] };
+  return writeJudged(db, await judgeBatch(db, batch, settings), settings);
 }
 
 /**

