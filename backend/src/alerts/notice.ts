@@ -21,8 +21,10 @@ export async function sendNoticeIfDue(
   now: Date,
   settings: AlertSettings,
 ): Promise<NoticeDecision> {
-  const quiet = await quietSpansOver(trx, place, now);
-  const decision = decideNotice({ alert, last: alert.last, quiet, now, settings });
+  // Quiet windows only ever hold a notice back: when nothing is owed, they need not be read.
+  const unquiet = decideNotice({ alert, last: alert.last, quiet: [], now, settings });
+  if (!unquiet.notify) return unquiet;
+  const decision = decideNotice({ alert, last: alert.last, quiet: await quietSpansOver(trx, place, now), now, settings });
   if (!decision.notify) return decision;
 
   const detail = await sketchDetail(trx, place.sketchId, now);
