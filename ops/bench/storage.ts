@@ -100,7 +100,9 @@ export async function storageRows(db: Db, url: string, dataDir: string, targetId
       judged.push(await judgeBatch(db, batch, settings));
     });
     writerMs += await overBatches(judged, async (batch) => {
-      stored += (await writeJudged(db, batch, settings)).stored;
+      // Awaited first: `stored += await …` would read `stored` before the await and lose the other batches' counts.
+      const { stored: n } = await writeJudged(db, batch, settings);
+      stored += n;
     });
     for (const done of finished) readings.push(readingRows(done, undefined, []).reading);
   }
