@@ -1,16 +1,7 @@
-/** What one scrape tells about one sketch: the figures the exposition carries, checked. */
-export interface SketchSample {
-  width: number;
-  depth: number;
-  /** n: the service's own count of increments (since start, or since the window began). */
-  streamTotal: number;
-  /** Non-zero counters of row 0 … depth − 1, in row order. */
-  nonzeroCells: number[];
-  counterBytes: number;
-  /** 0 for a cumulative sketch, else the reset period. */
-  windowSeconds: number;
-  conservative: boolean;
-}
+// What one scrape tells about one sketch; the test-the-target answer sends the same figures.
+import type { SketchSample } from '../../backend/src/api-types';
+
+export type { SketchSample };
 
 export type ReadResult<T> = { ok: true; value: T } | { ok: false; reason: string };
 

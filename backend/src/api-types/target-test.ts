@@ -1,15 +1,22 @@
 import type { Assessment } from '../maths/assess';
 import type { OccupancyEstimate } from '../maths/occupancy';
 
-/** The figures one scrape read from the target, and the memory they take. */
-export interface TargetReading {
+/** What one scrape tells about one sketch: the figures the exposition carries, checked. */
+export interface SketchSample {
   width: number;
   depth: number;
+  /** n: the service's own count of increments (since start, or since the window began). */
   streamTotal: number;
+  /** Non-zero counters of row 0 … depth − 1, in row order. */
   nonzeroCells: number[];
   counterBytes: number;
+  /** 0 for a cumulative sketch, else the reset period. */
   windowSeconds: number;
   conservative: boolean;
+}
+
+/** The figures one scrape read from the target, and the memory they take. */
+export interface TargetReading extends SketchSample {
   memoryBytes: number;
 }
 
