@@ -36,8 +36,9 @@ export function sketchVerdicts(instances: InstanceRow[], at: Date): SketchJudged
  * whose alerts may move — not clear, or clear with an alert still live — to
  * the alerts, inside the caller's transaction. Most of a fleet is clear with
  * no alert, so most batches skip the alerts' round trips altogether. The
- * alerts run under a savepoint: a fault there is logged and retried with the
- * next round instead of throwing away the readings just stored.
+ * alerts engine makes its changes under a savepoint of its own: a fault there
+ * is rolled back to it, logged here and retried with the next round instead
+ * of throwing away the readings just stored.
  */
 export async function rejudgeSketches(trx: Knex.Transaction, sketchIds: number[], hook: AlertsHook, log: (message: string) => void, at = new Date()): Promise<SketchJudged[]> {
   if (sketchIds.length === 0) return [];
@@ -59,7 +60,7 @@ export async function rejudgeSketches(trx: Knex.Transaction, sketchIds: number[]
   const mayMove = judged.filter((j) => j.level !== 'clear' || live.has(j.sketchId));
   if (mayMove.length === 0) return judged;
   try {
-    await trx.transaction((savepoint) => hook(savepoint, mayMove));
+    await hook(trx, mayMove);
   } catch (err) {
     log(`alerts not evaluated for sketches ${sketchIds.slice(0, 10).join(', ')}: ${err instanceof Error ? err.message : String(err)}`);
   }

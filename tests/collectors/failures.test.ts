@@ -1,3 +1,4 @@
+import type { Knex } from 'knex';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { SketchJudged } from '../../backend/src/alerts/evaluate';
 import { alertsHookWith } from '../../collectors/sketch-level';
@@ -89,6 +90,19 @@ describe('failed scrapes', () => {
     await makeAllDue(t.db);
     await collectRound(t.db, { alertsHook });
     expect(heard.map((round) => round.map((j) => [j.sketchId, j.level]))).toEqual([[[sketchId, 'stale']], [[sketchId, 'unreachable']]]);
+  });
+
+  it('when the alerts fail inside their savepoint, then the fault is logged and the readings are stored all the same', async () => {
+    targets.behaviours.set('/brimmed-too', { kind: 'sketch', label: 'limiter', figures: { ...GOOD, streamTotal: 200_000 } });
+    await t.db('targets').delete();
+    const { targetIds } = await addSketch(t.db, [targets.url('/brimmed-too')]);
+    // A fault in the database, as the alerts engine would meet it: inside its own savepoint.
+    const failingAlerts = (trx: Knex.Transaction) => trx.transaction((savepoint) => savepoint.raw('select 1 / 0'));
+    const { stored, logs } = await collectRound(t.db, { alertsHook: failingAlerts });
+    expect(stored.stored).toBe(1);
+    expect(logs.some((line) => /^alerts not evaluated for sketches \d+: .*division by zero/.test(line))).toBe(true);
+    expect(await t.db('readings').where({ target_id: targetIds[0], ok: true }).count('* as n').first()).toEqual({ n: 1 });
+    expect((await t.db('target_status').where({ target_id: targetIds[0] }).first()).level).toBe('brimmed');
   });
 
   it('when a sketch brims, then the real alerts hook opens an alert in the same transaction as the reading', async () => {

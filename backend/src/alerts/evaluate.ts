@@ -1,8 +1,9 @@
 import type { Knex } from 'knex';
 import type { HealthLevel } from '../maths/health-levels';
-import { alertById, insertAlert, liveAlertOf, lockSketchPlace, updateAlert, type AlertRecord } from './alert-store';
+import { alertById, alertFromRow, insertAlert, liveAlertOf, lockSketchPlace, updateAlert, type AlertRecord } from './alert-store';
 import { recordAlertEvent } from './alert-events';
 import { stepAlert, type SketchObservation } from './alert-step';
+import { decideNotice } from './notify-decision';
 import { systemClock, type Clock } from './clock';
 import { formatLoad, formatWhen } from './email/figures';
 import { sendNoticeIfDue } from './notice';
@@ -23,6 +24,12 @@ export interface SketchJudged {
  * Each sketch's alert follows its level (alert-step.ts: open, follow, settle,
  * resolve), and any notice that is due goes to the outbox in this same
  * transaction, so an alert change and its e-mail commit or roll back together.
+ *
+ * Most sketches in a round have nothing to do: clear with no alert, or an
+ * alert already at their level with no notice owed. One unlocked read of the
+ * sketches' live alerts finds them, and only the rest are locked and stepped,
+ * under a savepoint of their own. A sketch passed over on a read that another
+ * collector is changing at that moment is simply looked at again next round.
  */
 export async function evaluateSketchAlerts(
   trx: Knex.Transaction,
@@ -30,29 +37,58 @@ export async function evaluateSketchAlerts(
   clock: Clock = systemClock,
   settings: AlertSettings = defaultAlertSettings(),
 ): Promise<void> {
-  // A clear sketch without a live alert has nothing to step (stepAlert gives 'none'); most of a fleet is
-  // clear, so one query spares their locks and lookups. An alert another collector opens meanwhile
-  // is seen on its next round.
-  const quiet = judged.filter((j) => j.level === 'clear').map((j) => Number(j.sketchId));
-  const live = new Set<number>(
-    quiet.length === 0 ? [] : (await trx('alerts').whereIn('sketch_id', quiet).whereNot({ state: 'resolved' }).pluck('sketch_id')).map(Number),
+  if (judged.length === 0) return;
+  const now = clock.now();
+  const { rows } = await trx.raw(
+    `select s.id as judged_sketch_id, s.watch_line as sketch_watch_line, a.*
+     from sketches s left join alerts a on a.sketch_id = s.id and a.state <> 'resolved'
+     where s.id = any(?::bigint[])`,
+    [judged.map((j) => Number(j.sketchId))],
   );
-  const due = judged.filter((j) => j.level !== 'clear' || live.has(Number(j.sketchId)));
+  const known = new Map<number, { watchLine: number; live: AlertRecord | null }>(
+    rows.map((r: { judged_sketch_id: number; sketch_watch_line: number; id: number | null }) => [
+      Number(r.judged_sketch_id),
+      { watchLine: Number(r.sketch_watch_line), live: r.id === null ? null : alertFromRow(r as Record<string, unknown>) },
+    ]),
+  );
+  // A sketch deleted since it was judged took its alerts with it.
+  const acting = judged.filter((j) => {
+    const k = known.get(Number(j.sketchId));
+    return k !== undefined && mayAct(observationOf(j, k.watchLine), k.live, now, settings);
+  });
+  if (acting.length === 0) return;
   // One order for the sketch locks, so two collectors never wait on each other in a circle.
-  const ordered = [...due].sort((a, b) => Number(a.sketchId) - Number(b.sketchId));
-  for (const item of ordered) await evaluateOne(trx, item, clock.now(), settings);
+  const ordered = [...acting].sort((a, b) => Number(a.sketchId) - Number(b.sketchId));
+  await trx.transaction(async (savepoint) => {
+    for (const item of ordered) await evaluateOne(savepoint, item, now, settings);
+  });
 }
 
+function observationOf(item: SketchJudged, sketchWatchLine: number): SketchObservation {
+  return {
+    level: item.level,
+    load: typeof item.judgement?.load === 'number' ? item.judgement.load : null,
+    watchLine: item.judgement?.watchLine ?? sketchWatchLine,
+    at: new Date(item.at),
+  };
+}
+
+/**
+ * Whether stepping a sketch's alert could change anything now: a step to
+ * take (open, follow, settle, resolve) or a notice owed. Quiet windows are
+ * left out: they can only hold a notice back, so this errs towards acting.
+ */
+export function mayAct(obs: SketchObservation, live: AlertRecord | null, now: Date, settings: AlertSettings): boolean {
+  if (stepAlert(live, obs, settings).action !== 'none') return true;
+  return live !== null && decideNotice({ alert: live, last: live.last, quiet: [], now, settings }).notify;
+}
+
+/** Locks the sketch, reads its live alert again under the lock, steps it and sends what is owed. */
 async function evaluateOne(trx: Knex.Transaction, item: SketchJudged, now: Date, settings: AlertSettings): Promise<void> {
   const sketchId = Number(item.sketchId);
   const place = await lockSketchPlace(trx, sketchId);
   if (!place) return; // deleted since it was read: its alerts went with it
-  const obs: SketchObservation = {
-    level: item.level,
-    load: typeof item.judgement?.load === 'number' ? item.judgement.load : null,
-    watchLine: item.judgement?.watchLine ?? place.watchLine,
-    at: new Date(item.at),
-  };
+  const obs = observationOf(item, place.watchLine);
   const alert = await applyStep(trx, sketchId, await liveAlertOf(trx, sketchId), obs, settings);
   if (alert) await sendNoticeIfDue(trx, alert, place, now, settings);
 }
