@@ -11,7 +11,7 @@ export * from './theil-sen';
 export * from './forecast-series';
 export * from './forecast';
 export * from './resize';
-export * from './noise-floor';
+export * from './select-rank';
 export * from './dump-verdict';
 export * from './dump';
 export * from './hashing';

@@ -1,4 +1,4 @@
-import { selectInPlace } from './noise-floor';
+import { selectInPlace } from './select-rank';
 import { distinctFromNonzeroCells } from './occupancy';
 import type { DumpRowSummary } from './dump-verdict';
 

@@ -1,4 +1,4 @@
-import type { CounterRow } from '../../maths/noise-floor';
+import type { CounterRow } from '../../maths/select-rank';
 
 const UINT32_MAX = 0xffffffff;
 
