@@ -56,10 +56,11 @@ describe('three collector processes sharing one database', () => {
     expect(ends.map((e) => e.code)).toEqual([0, 0]);
     expect(Number((await t.db('targets').whereIn('lease_owner', survivors.map((c) => c.name)).count('* as n').first())?.n)).toBe(0);
 
-    // The work split: each process took part while all three ran. Whoever polls first claims what is due,
-    // so the shares follow how busy each process is (on a loaded machine, far from a third each).
+    // The work split: each process took part while all three ran. Whoever polls first claims what is due, and a
+    // process claims again as each of its scrapes ends, so the shares follow how busy and how quick each process
+    // is; on a loaded machine they are far from a third each (one CI run saw 2 % for one process), hence 1 %.
     const before = targets.hits.filter((h) => h.at >= checkFrom && h.at < killedAt);
-    for (const c of collectors) expect(before.filter((h) => h.agent === `brimwatch-collector/${c.name}`).length, c.name).toBeGreaterThan(before.length * 0.03);
+    for (const c of collectors) expect(before.filter((h) => h.agent === `brimwatch-collector/${c.name}`).length, c.name).toBeGreaterThan(before.length * 0.01);
 
     const readings: { target_id: number; taken_at: Date }[] = await t.db('readings').orderBy('taken_at').select('target_id', 'taken_at');
     const slotsOf = new Map<number, number[]>();
