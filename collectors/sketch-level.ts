@@ -32,35 +32,28 @@ export function sketchVerdicts(instances: InstanceRow[], at: Date): SketchJudged
 }
 
 /**
- * Re-judges each sketch from its instances' latest word and hands the ones
- * whose alerts may move — not clear, or clear with an alert still live — to
- * the alerts, inside the caller's transaction. Most of a fleet is clear with
- * no alert, so most batches skip the alerts' round trips altogether. The
- * alerts engine makes its changes under a savepoint of its own: a fault there
- * is rolled back to it, logged here and retried with the next round instead
- * of throwing away the readings just stored.
+ * Re-judges each sketch from its instances' latest word and hands the result
+ * to the alerts, inside the caller's transaction. The alerts engine finds the
+ * few sketches whose alert would move in one read and makes its changes under
+ * a savepoint of its own: a fault there is rolled back to it, logged here and
+ * retried with the next round instead of throwing away the readings just stored.
  */
 export async function rejudgeSketches(trx: Knex.Transaction, sketchIds: number[], hook: AlertsHook, log: (message: string) => void, at = new Date()): Promise<SketchJudged[]> {
   if (sketchIds.length === 0) return [];
   // Only the two figures read, not each whole judgement: a batch re-judges every instance of the sketches it touched.
   const { rows } = await trx.raw(
-    `select ts.sketch_id, ts.level, ts.judgement is not null as judged, (ts.judgement->>'load')::float8 as load,
-            (ts.judgement->>'watchLine')::float8 as watch_line, live.sketch_id is not null as alert_live
-     from target_status ts
-     left join (select distinct sketch_id from alerts where sketch_id = any(?::bigint[]) and state <> 'resolved') live on live.sketch_id = ts.sketch_id
-     where ts.sketch_id = any(?::bigint[])`,
-    [sketchIds, sketchIds],
+    `select sketch_id, level, judgement is not null as judged, (judgement->>'load')::float8 as load, (judgement->>'watchLine')::float8 as watch_line
+     from target_status where sketch_id = any(?::bigint[])`,
+    [sketchIds],
   );
-  const live = new Set<number>();
-  const instances: InstanceRow[] = rows.map((r: { sketch_id: number; level: HealthLevel; judged: boolean; load: number; watch_line: number; alert_live: boolean }) => {
-    if (r.alert_live) live.add(Number(r.sketch_id));
-    return { sketch_id: r.sketch_id, level: r.level, judgement: r.judged ? { load: r.load, watchLine: r.watch_line } : null };
-  });
+  const instances: InstanceRow[] = rows.map((r: { sketch_id: number; level: HealthLevel; judged: boolean; load: number; watch_line: number }) => ({
+    sketch_id: r.sketch_id,
+    level: r.level,
+    judgement: r.judged ? { load: r.load, watchLine: r.watch_line } : null,
+  }));
   const judged = sketchVerdicts(instances, at);
-  const mayMove = judged.filter((j) => j.level !== 'clear' || live.has(j.sketchId));
-  if (mayMove.length === 0) return judged;
   try {
-    await hook(trx, mayMove);
+    await hook(trx, judged);
   } catch (err) {
     log(`alerts not evaluated for sketches ${sketchIds.slice(0, 10).join(', ')}: ${err instanceof Error ? err.message : String(err)}`);
   }
